@@ -1,0 +1,356 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#include "WallLoadsPipeline.h"
+
+#include "vtkCellData.h"
+#include "vtkCommunicator.h"
+#include "vtkCompositeDataSet.h"
+#include "vtkDataObjectTree.h"
+#include "vtkDataObjectTreeIterator.h"
+#include "vtkDataSetAttributes.h"
+#include "vtkDoubleArray.h"
+#include "vtkFieldData.h"
+#include "vtkFloatArray.h"
+#include "vtkInformation.h"
+#include "vtkMultiProcessController.h"
+#include "vtkPartitionedDataSet.h"
+#include "vtkPartitionedDataSetCollection.h"
+#include "vtkPointData.h"
+#include "vtkPoints.h"
+#include "vtkPolyData.h"
+#include "vtkUnsignedCharArray.h"
+#include "vtkUnstructuredGrid.h"
+
+#include <sstream>
+
+namespace wallloads
+{
+
+bool IsUnsetArrayName(const char* name)
+{
+  if (name == nullptr)
+  {
+    return true;
+  }
+  const std::string s(name);
+  return s.empty() || s == "None" || s == "(none)";
+}
+
+const unsigned char* CellGhostMask(vtkDataSet* ds)
+{
+  vtkUnsignedCharArray* ghosts = ds->GetCellData()->GetGhostArray();
+  if (!ghosts || ghosts->GetNumberOfTuples() != ds->GetNumberOfCells())
+  {
+    return nullptr;
+  }
+  return ghosts->GetPointer(0);
+}
+
+ArrayView MakeArrayView(vtkDataArray* array, bool onPoints)
+{
+  ArrayView view;
+  if (!array)
+  {
+    return view;
+  }
+  view.NumComponents = array->GetNumberOfComponents();
+  view.OnPoints = onPoints;
+  if (auto* d = vtkDoubleArray::FastDownCast(array))
+  {
+    view.Data = d->GetPointer(0);
+  }
+  else if (auto* f = vtkFloatArray::FastDownCast(array))
+  {
+    view.Data = f->GetPointer(0);
+    view.IsFloat = true;
+  }
+  else
+  {
+    // Integer or implicit arrays: one conversion, then the same fast path.
+    auto copy = vtkSmartPointer<vtkDoubleArray>::New();
+    copy->DeepCopy(array);
+    view.Holder = copy;
+    view.Data = copy->GetPointer(0);
+  }
+  return view;
+}
+
+std::string DescribeArrays(vtkDataSet* ds)
+{
+  std::ostringstream os;
+  auto list = [&os](vtkDataSetAttributes* attrs) {
+    bool first = true;
+    for (int i = 0; i < attrs->GetNumberOfArrays(); ++i)
+    {
+      vtkAbstractArray* a = attrs->GetAbstractArray(i);
+      if (!a || !a->GetName() || std::string(a->GetName()) == vtkDataSetAttributes::GhostArrayName())
+      {
+        continue;
+      }
+      os << (first ? "" : ", ") << "'" << a->GetName() << "' (" << a->GetNumberOfComponents()
+         << ")";
+      first = false;
+    }
+    if (first)
+    {
+      os << "none";
+    }
+  };
+  os << "cell arrays: ";
+  list(ds->GetCellData());
+  os << "; point arrays: ";
+  list(ds->GetPointData());
+  return os.str();
+}
+
+vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int wantComponents,
+  const std::string& role, const std::string& blockName, std::string& error)
+{
+  vtkDataSetAttributes* attrs =
+    sel.OnPoints ? static_cast<vtkDataSetAttributes*>(ds->GetPointData()) : ds->GetCellData();
+  vtkDataArray* array = attrs->GetArray(sel.Name.c_str());
+  std::ostringstream os;
+  const std::string where = blockName.empty() ? std::string() : " on block '" + blockName + "'";
+  if (!array)
+  {
+    os << role << " array '" << sel.Name << "' not found in " << (sel.OnPoints ? "point" : "cell")
+       << " data" << where << "; available " << DescribeArrays(ds) << ".";
+    error = os.str();
+    return nullptr;
+  }
+  if (wantComponents > 0 && array->GetNumberOfComponents() != wantComponents)
+  {
+    os << role << " array '" << sel.Name << "'" << where << " has "
+       << array->GetNumberOfComponents() << " components; " << wantComponents << " expected.";
+    error = os.str();
+    return nullptr;
+  }
+  return array;
+}
+
+PointView MakePointView(vtkDataSet* ds)
+{
+  PointView view;
+  vtkPointSet* ps = vtkPointSet::SafeDownCast(ds);
+  if (!ps || !ps->GetPoints())
+  {
+    return view;
+  }
+  vtkDataArray* data = ps->GetPoints()->GetData();
+  if (auto* d = vtkDoubleArray::FastDownCast(data))
+  {
+    view.Data = d->GetPointer(0);
+  }
+  else if (auto* f = vtkFloatArray::FastDownCast(data))
+  {
+    view.Data = f->GetPointer(0);
+    view.IsFloat = true;
+  }
+  else
+  {
+    auto copy = vtkSmartPointer<vtkDoubleArray>::New();
+    copy->DeepCopy(data);
+    view.Holder = copy;
+    view.Data = copy->GetPointer(0);
+  }
+  return view;
+}
+
+namespace
+{
+vtkCellArray* FaceCells(vtkDataSet* ds)
+{
+  if (auto* pd = vtkPolyData::SafeDownCast(ds))
+  {
+    return pd->GetPolys();
+  }
+  if (auto* ug = vtkUnstructuredGrid::SafeDownCast(ds))
+  {
+    return ug->GetCells();
+  }
+  return nullptr;
+}
+
+template <typename I>
+bool FillFrom(vtkCellArray* cells, FaceTopology<I>& topology);
+
+template <>
+bool FillFrom<vtkTypeInt32>(vtkCellArray* cells, FaceTopology<vtkTypeInt32>& topology)
+{
+  if (cells->IsStorage64Bit())
+  {
+    return false;
+  }
+  topology.Offsets = cells->GetOffsetsArray32()->GetPointer(0);
+  topology.Connectivity = cells->GetConnectivityArray32()->GetPointer(0);
+  return true;
+}
+
+template <>
+bool FillFrom<vtkTypeInt64>(vtkCellArray* cells, FaceTopology<vtkTypeInt64>& topology)
+{
+  if (!cells->IsStorage64Bit())
+  {
+    return false;
+  }
+  topology.Offsets = cells->GetOffsetsArray64()->GetPointer(0);
+  topology.Connectivity = cells->GetConnectivityArray64()->GetPointer(0);
+  return true;
+}
+} // namespace
+
+bool FacesUse64BitIds(vtkDataSet* ds)
+{
+  vtkCellArray* cells = FaceCells(ds);
+  return cells && cells->IsStorage64Bit();
+}
+
+template <typename I>
+bool MakeFaceTopology(vtkDataSet* ds, FaceTopology<I>& topology)
+{
+  vtkCellArray* cells = FaceCells(ds);
+  if (!cells || !FillFrom<I>(cells, topology))
+  {
+    return false;
+  }
+  if (auto* pd = vtkPolyData::SafeDownCast(ds))
+  {
+    topology.FirstCell = pd->GetNumberOfVerts() + pd->GetNumberOfLines();
+    topology.NumPolys = pd->GetNumberOfPolys();
+    topology.Types = nullptr;
+  }
+  else
+  {
+    auto* ug = vtkUnstructuredGrid::SafeDownCast(ds);
+    topology.Types = ug->GetCellTypesArray()->GetPointer(0);
+  }
+  return true;
+}
+template bool MakeFaceTopology<vtkTypeInt32>(vtkDataSet*, FaceTopology<vtkTypeInt32>&);
+template bool MakeFaceTopology<vtkTypeInt64>(vtkDataSet*, FaceTopology<vtkTypeInt64>&);
+
+namespace
+{
+std::string MetaName(vtkInformation* info)
+{
+  if (info && info->Has(vtkCompositeDataSet::NAME()))
+  {
+    return info->Get(vtkCompositeDataSet::NAME());
+  }
+  return std::string();
+}
+} // namespace
+
+void ListLeaves(vtkDataObject* input, std::vector<Leaf>& leaves, std::vector<std::string>& regions)
+{
+  leaves.clear();
+  regions.clear();
+  if (auto* ds = vtkDataSet::SafeDownCast(input))
+  {
+    leaves.push_back({ ds, std::string(), 0 });
+    regions.emplace_back("Surface");
+    return;
+  }
+  if (auto* pdc = vtkPartitionedDataSetCollection::SafeDownCast(input))
+  {
+    // Ranks may hold different numbers of partitions: regions are the
+    // partitioned datasets, which every rank lists alike.
+    for (unsigned int i = 0; i < pdc->GetNumberOfPartitionedDataSets(); ++i)
+    {
+      std::string name = MetaName(pdc->HasMetaData(i) ? pdc->GetMetaData(i) : nullptr);
+      if (name.empty())
+      {
+        name = "Block " + std::to_string(i);
+      }
+      regions.push_back(name);
+      vtkPartitionedDataSet* pds = pdc->GetPartitionedDataSet(i);
+      for (unsigned int j = 0; pds && j < pds->GetNumberOfPartitions(); ++j)
+      {
+        leaves.push_back({ pds->GetPartition(j), name, static_cast<int>(i) });
+      }
+    }
+    return;
+  }
+  if (auto* pds = vtkPartitionedDataSet::SafeDownCast(input))
+  {
+    regions.emplace_back("Surface");
+    for (unsigned int j = 0; j < pds->GetNumberOfPartitions(); ++j)
+    {
+      leaves.push_back({ pds->GetPartition(j), std::string(), 0 });
+    }
+    return;
+  }
+  if (auto* tree = vtkDataObjectTree::SafeDownCast(input))
+  {
+    vtkSmartPointer<vtkDataObjectTreeIterator> it;
+    it.TakeReference(tree->NewTreeIterator());
+    it->SkipEmptyNodesOff();
+    it->VisitOnlyLeavesOn();
+    it->TraverseSubTreeOn();
+    int index = 0;
+    for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
+    {
+      std::string name = MetaName(it->HasCurrentMetaData() ? it->GetCurrentMetaData() : nullptr);
+      if (name.empty())
+      {
+        name = "Block " + std::to_string(it->GetCurrentFlatIndex());
+      }
+      regions.push_back(name);
+      leaves.push_back({ vtkDataSet::SafeDownCast(it->GetCurrentDataObject()), name, index });
+      ++index;
+    }
+  }
+}
+
+namespace
+{
+void Reduce(double* values, int count, int op)
+{
+  vtkMultiProcessController* controller = vtkMultiProcessController::GetGlobalController();
+  if (!controller || controller->GetNumberOfProcesses() < 2 || count == 0)
+  {
+    return;
+  }
+  std::vector<double> local(values, values + count);
+  controller->AllReduce(local.data(), values, count, op);
+}
+} // namespace
+
+void GlobalSum(double* values, int count)
+{
+  Reduce(values, count, vtkCommunicator::SUM_OP);
+}
+void GlobalMin(double* values, int count)
+{
+  Reduce(values, count, vtkCommunicator::MIN_OP);
+}
+void GlobalMax(double* values, int count)
+{
+  Reduce(values, count, vtkCommunicator::MAX_OP);
+}
+
+int ProcessRank()
+{
+  vtkMultiProcessController* controller = vtkMultiProcessController::GetGlobalController();
+  return controller ? controller->GetLocalProcessId() : 0;
+}
+
+int ProcessCount()
+{
+  vtkMultiProcessController* controller = vtkMultiProcessController::GetGlobalController();
+  return controller ? controller->GetNumberOfProcesses() : 1;
+}
+
+void SetFieldValue(vtkFieldData* fd, const char* name, const double* values, int numComponents)
+{
+  auto array = vtkSmartPointer<vtkDoubleArray>::New();
+  array->SetName(name);
+  array->SetNumberOfComponents(numComponents);
+  array->SetNumberOfTuples(1);
+  for (int c = 0; c < numComponents; ++c)
+  {
+    array->SetValue(c, values[c]);
+  }
+  fd->AddArray(array);
+}
+
+} // namespace wallloads

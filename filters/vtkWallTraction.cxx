@@ -1,0 +1,603 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#include "vtkWallTraction.h"
+
+#include "WallLoadsPipeline.h"
+#include "wallloads/CompensatedSum.h"
+#include "wallloads/FaceGeometry.h"
+#include "wallloads/OrientationCheck.h"
+#include "wallloads/Traction.h"
+
+#include "vtkCellData.h"
+#include "vtkDataObjectTree.h"
+#include "vtkDataObjectTreeIterator.h"
+#include "vtkDataSet.h"
+#include "vtkDoubleArray.h"
+#include "vtkFieldData.h"
+#include "vtkIdTypeArray.h"
+#include "vtkInformation.h"
+#include "vtkInformationVector.h"
+#include "vtkObjectFactory.h"
+#include "vtkSMPThreadLocal.h"
+#include "vtkSMPTools.h"
+#include "vtkSmartPointer.h"
+
+#include <cmath>
+#include <limits>
+#include <sstream>
+
+vtkStandardNewMacro(vtkWallTraction);
+
+namespace
+{
+using namespace wallloads;
+
+/// Everything one execution needs, read from the properties once.
+struct Settings
+{
+  ArraySelection Pressure, DensityArray, WallShearStress, VelocityGradient, ViscosityArray,
+    TurbulentViscosity;
+  bool PressurePerUnitDensity = false;
+  bool ShearPerUnitDensity = false;
+  bool Kinematic = false;
+  int ShearSource = 0;
+  int Orientation = 0;
+  bool IncludeNormal = false;
+  bool CheckOrientation = true;
+  double ReferencePressure = 0;
+  double Density = 1;
+  double Viscosity = 0;
+  double LoadDirection[3] = { 1, 0, 0 };
+  double DynamicPressure = 0; ///< 0: no coefficients
+};
+
+/// Local (this rank) results of one execution.
+struct Tally
+{
+  CompensatedSum<double> WettedArea;
+  double NonSurface = 0, Degenerate = 0, NonFinite = 0, Inconsistent = 0, OpenEdges = 0;
+  double Faces = 0;
+};
+
+/// Output arrays of one leaf, as raw pointers for the face loop.
+struct Outputs
+{
+  double *Normal, *Area, *TractionP, *TractionV, *Traction, *ForceP, *ForceV, *Force, *NormalV,
+    *Directional;
+  double* Cp = nullptr;
+  double* Cf = nullptr;
+};
+
+/// Inputs of one leaf.
+struct Inputs
+{
+  ArrayView Pressure, Density, Shear, Gradient, Viscosity, TurbulentViscosity, WallNormal;
+  PointView Points;
+  const unsigned char* Ghosts = nullptr;
+};
+
+struct ThreadTally
+{
+  CompensatedSum<double> Area;
+  vtkIdType NonSurface = 0, Degenerate = 0, NonFinite = 0, Faces = 0;
+};
+
+template <typename I, typename P>
+struct FaceLoop
+{
+  const Settings& S;
+  const Inputs& In;
+  const Outputs& Out;
+  const FaceTopology<I>& Topo;
+  vtkSMPThreadLocal<ThreadTally> Local;
+
+  FaceLoop(const Settings& s, const Inputs& in, const Outputs& out, const FaceTopology<I>& topo)
+    : S(s)
+    , In(in)
+    , Out(out)
+    , Topo(topo)
+  {
+  }
+
+  void Initialize() {}
+
+  void MarkSkipped(vtkIdType c) const
+  {
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    for (double* a : { Out.Normal, Out.TractionP, Out.TractionV, Out.Traction, Out.ForceP,
+           Out.ForceV, Out.Force })
+    {
+      a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
+    }
+    Out.Area[c] = Out.NormalV[c] = Out.Directional[c] = nan;
+    if (Out.Cp)
+    {
+      Out.Cp[c] = nan;
+    }
+    if (Out.Cf)
+    {
+      Out.Cf[c] = nan;
+    }
+  }
+
+  void operator()(vtkIdType begin, vtkIdType end)
+  {
+    ThreadTally& tally = this->Local.Local();
+    const P* points = static_cast<const P*>(In.Points.Data);
+    for (vtkIdType c = begin; c < end; ++c)
+    {
+      const bool counted = IsCountedCell(In.Ghosts, c);
+      I buffer[4];
+      const I* ids = nullptr;
+      const int n = Topo.Corners(c, ids, buffer);
+      if (n == 0)
+      {
+        this->MarkSkipped(c);
+        tally.NonSurface += counted;
+        continue;
+      }
+      FaceFrame<double> frame;
+      const FaceStatus status = ComputeFaceFrame<double>(points, ids, n, frame);
+      if (status != FaceStatus::Ok)
+      {
+        this->MarkSkipped(c);
+        (status == FaceStatus::NonFinite ? tally.NonFinite : tally.Degenerate) += counted;
+        continue;
+      }
+      double sign = S.Orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
+      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
+      {
+        const double d = frame.Normal[0] * In.WallNormal.Get(c, 0) +
+          frame.Normal[1] * In.WallNormal.Get(c, 1) + frame.Normal[2] * In.WallNormal.Get(c, 2);
+        sign = d > 0 ? 1.0 : (d < 0 ? -1.0 : std::numeric_limits<double>::quiet_NaN());
+      }
+      const double normal[3] = { sign * frame.Normal[0], sign * frame.Normal[1],
+        sign * frame.Normal[2] };
+
+      double rho = S.Density;
+      if (In.Density.Valid())
+      {
+        rho = In.Density.Face(c, ids, n, 0);
+      }
+      FaceTractionInput<double> tin;
+      tin.Normal = normal;
+      tin.IncludeNormalViscousStress = S.IncludeNormal;
+      if (In.Pressure.Valid())
+      {
+        const double p = In.Pressure.Face(c, ids, n, 0);
+        tin.GaugePressure = (S.PressurePerUnitDensity ? rho * p : p) - S.ReferencePressure;
+      }
+      else
+      {
+        tin.GaugePressure = 0;
+      }
+      double shear[3];
+      double gradient[9];
+      if (S.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS)
+      {
+        const double f = S.ShearPerUnitDensity ? rho : 1.0;
+        for (int k = 0; k < 3; ++k)
+        {
+          shear[k] = f * In.Shear.Face(c, ids, n, k);
+        }
+        tin.ShearVector = shear;
+      }
+      else if (S.ShearSource == vtkWallTraction::VELOCITY_GRADIENT)
+      {
+        for (int k = 0; k < 9; ++k)
+        {
+          gradient[k] = In.Gradient.Face(c, ids, n, k);
+        }
+        double mu = In.Viscosity.Valid() ? In.Viscosity.Face(c, ids, n, 0) : S.Viscosity;
+        if (In.TurbulentViscosity.Valid())
+        {
+          mu += In.TurbulentViscosity.Face(c, ids, n, 0);
+        }
+        tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
+        tin.VelocityGradient = gradient;
+      }
+      FaceTraction<double> t;
+      if (!ComputeFaceTraction(tin, t) || !std::isfinite(sign) || !std::isfinite(rho))
+      {
+        this->MarkSkipped(c);
+        tally.NonFinite += counted;
+        continue;
+      }
+      const double A = frame.Area;
+      for (int k = 0; k < 3; ++k)
+      {
+        const vtkIdType j = 3 * c + k;
+        Out.Normal[j] = normal[k];
+        Out.TractionP[j] = t.Pressure[k];
+        Out.TractionV[j] = t.Viscous[k];
+        Out.Traction[j] = t.Total[k];
+        Out.ForceP[j] = t.Pressure[k] * A;
+        Out.ForceV[j] = t.Viscous[k] * A;
+        Out.Force[j] = t.Total[k] * A;
+      }
+      Out.Area[c] = A;
+      Out.NormalV[c] = t.NormalViscous;
+      Out.Directional[c] = Dot(t.Total, S.LoadDirection);
+      if (Out.Cp)
+      {
+        Out.Cp[c] = tin.GaugePressure / S.DynamicPressure;
+      }
+      if (Out.Cf)
+      {
+        Out.Cf[c] = t.ShearMagnitude / S.DynamicPressure;
+      }
+      if (counted)
+      {
+        tally.Area.Add(A);
+        ++tally.Faces;
+      }
+    }
+  }
+
+  void Reduce() {}
+};
+
+double* NewCellArray(vtkDataSet* out, const char* name, int comps)
+{
+  auto a = vtkSmartPointer<vtkDoubleArray>::New();
+  a->SetName(name);
+  a->SetNumberOfComponents(comps);
+  a->SetNumberOfTuples(out->GetNumberOfCells());
+  out->GetCellData()->AddArray(a);
+  return a->GetPointer(0);
+}
+
+template <typename I, typename P>
+void RunFaces(const Settings& s, const Inputs& in, const Outputs& out, vtkDataSet* ds, Tally& tally)
+{
+  FaceTopology<I> topo;
+  MakeFaceTopology<I>(ds, topo);
+  FaceLoop<I, P> loop(s, in, out, topo);
+  vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
+  // Merge thread tallies in a fixed order of their values: compensated sums
+  // make the total independent of how the faces were split among threads.
+  for (const ThreadTally& t : loop.Local)
+  {
+    tally.WettedArea.Merge(t.Area);
+    tally.NonSurface += t.NonSurface;
+    tally.Degenerate += t.Degenerate;
+    tally.NonFinite += t.NonFinite;
+    tally.Faces += t.Faces;
+  }
+  if (s.CheckOrientation)
+  {
+    const double* area = out.Area;
+    const unsigned char* ghosts = in.Ghosts;
+    auto corners = [&](std::int64_t f, const I*& ids, I buffer[4]) -> int {
+      if (!std::isfinite(area[f]) || !IsCountedCell(ghosts, f))
+      {
+        return 0;
+      }
+      return topo.Corners(f, ids, buffer);
+    };
+    auto sorter = [](auto b, auto e) { vtkSMPTools::Sort(b, e); };
+    const OrientationReport report =
+      CheckOrientation<I>(ds->GetNumberOfCells(), corners, sorter);
+    tally.Inconsistent += static_cast<double>(report.InconsistentFaces);
+    tally.OpenEdges += static_cast<double>(report.BoundaryEdges);
+  }
+}
+
+bool SelectionFromAlgorithm(vtkAlgorithm* alg, int index, ArraySelection& sel)
+{
+  vtkInformation* info = alg->GetInputArrayInformation(index);
+  sel = ArraySelection();
+  if (!info || !info->Has(vtkDataObject::FIELD_NAME()))
+  {
+    return false;
+  }
+  const char* name = info->Get(vtkDataObject::FIELD_NAME());
+  if (IsUnsetArrayName(name))
+  {
+    return false;
+  }
+  sel.Name = name;
+  sel.OnPoints = info->Has(vtkDataObject::FIELD_ASSOCIATION()) &&
+    info->Get(vtkDataObject::FIELD_ASSOCIATION()) == vtkDataObject::FIELD_ASSOCIATION_POINTS;
+  return true;
+}
+
+/// Process one leaf; returns false with `error` set on bad input.
+bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::string& blockName,
+  Tally& tally, std::string& error)
+{
+  Inputs inputs;
+  auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
+    if (!sel.Set())
+    {
+      return true;
+    }
+    vtkDataArray* a = FindSelectedArray(in, sel, comps, role, blockName, error);
+    view = MakeArrayView(a, sel.OnPoints);
+    return a != nullptr;
+  };
+  const bool gradient = s.ShearSource == vtkWallTraction::VELOCITY_GRADIENT;
+  if (!fetch(s.Pressure, 1, "Pressure", inputs.Pressure) ||
+    !fetch(s.DensityArray, 1, "Density", inputs.Density) ||
+    (s.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS &&
+      !fetch(s.WallShearStress, 3, "Wall shear stress", inputs.Shear)) ||
+    (gradient && !fetch(s.VelocityGradient, 9, "Velocity gradient", inputs.Gradient)) ||
+    (gradient && !fetch(s.ViscosityArray, 1, "Viscosity", inputs.Viscosity)) ||
+    (gradient && !fetch(s.TurbulentViscosity, 1, "Turbulent viscosity", inputs.TurbulentViscosity)))
+  {
+    return false;
+  }
+  if (s.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
+  {
+    ArraySelection normal{ names::WallNormal, false };
+    if (!fetch(normal, 3, "Wall normal (Orientation = Use Wall Normal array)", inputs.WallNormal))
+    {
+      return false;
+    }
+  }
+  inputs.Points = MakePointView(in);
+  inputs.Ghosts = CellGhostMask(in);
+
+  Outputs o;
+  o.Normal = NewCellArray(out, names::WallNormal, 3);
+  o.Area = NewCellArray(out, names::FaceArea, 1);
+  o.TractionP = NewCellArray(out, names::PressureTraction, 3);
+  o.TractionV = NewCellArray(out, names::ViscousTraction, 3);
+  o.Traction = NewCellArray(out, names::Traction, 3);
+  o.ForceP = NewCellArray(out, names::PressureForce, 3);
+  o.ForceV = NewCellArray(out, names::ViscousForce, 3);
+  o.Force = NewCellArray(out, names::Force, 3);
+  o.NormalV = NewCellArray(out, names::NormalViscousStress, 1);
+  o.Directional = NewCellArray(out, names::DirectionalTraction, 1);
+  if (s.DynamicPressure > 0)
+  {
+    o.Cp = NewCellArray(out, names::PressureCoefficient, 1);
+    if (s.ShearSource != vtkWallTraction::NO_SHEAR)
+    {
+      o.Cf = NewCellArray(out, names::SkinFrictionCoefficient, 1);
+    }
+  }
+  if (in->GetNumberOfCells() == 0)
+  {
+    return true;
+  }
+  if (!inputs.Points.Data)
+  {
+    // Cells without points: nothing is a face.
+    tally.NonSurface += static_cast<double>(in->GetNumberOfCells());
+    return true;
+  }
+  FaceTopology<vtkTypeInt32> probe;
+  const bool wide = FacesUse64BitIds(in);
+  const bool haveFaces = wide ? true : MakeFaceTopology<vtkTypeInt32>(in, probe);
+  if (!haveFaces && !wide)
+  {
+    error = "Wall Traction takes polydata or unstructured grids of 2D cells; block '" +
+      blockName + "' is a " + in->GetClassName() + ".";
+    return false;
+  }
+  if (wide)
+  {
+    inputs.Points.IsFloat ? RunFaces<vtkTypeInt64, float>(s, inputs, o, in, tally)
+                          : RunFaces<vtkTypeInt64, double>(s, inputs, o, in, tally);
+  }
+  else
+  {
+    inputs.Points.IsFloat ? RunFaces<vtkTypeInt32, float>(s, inputs, o, in, tally)
+                          : RunFaces<vtkTypeInt32, double>(s, inputs, o, in, tally);
+  }
+  return true;
+}
+
+void AddCount(vtkFieldData* fd, const char* name, double value)
+{
+  auto a = vtkSmartPointer<vtkIdTypeArray>::New();
+  a->SetName(name);
+  a->SetNumberOfTuples(1);
+  a->SetValue(0, static_cast<vtkIdType>(value));
+  fd->AddArray(a);
+}
+} // namespace
+
+//------------------------------------------------------------------------------
+vtkWallTraction::vtkWallTraction()
+{
+  // Nothing selected until the caller (or the ParaView proxy) chooses arrays.
+  for (int i = PRESSURE_ARRAY; i <= TURBULENT_VISCOSITY_ARRAY; ++i)
+  {
+    this->SetInputArrayToProcess(i, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "");
+  }
+}
+
+//------------------------------------------------------------------------------
+int vtkWallTraction::FillInputPortInformation(int, vtkInformation* info)
+{
+  info->Remove(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE());
+  info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkPolyData");
+  info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkUnstructuredGrid");
+  info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkDataObjectTree");
+  return 1;
+}
+
+//------------------------------------------------------------------------------
+int vtkWallTraction::RequestData(
+  vtkInformation*, vtkInformationVector** inputVector, vtkInformationVector* outputVector)
+{
+  vtkDataObject* input = vtkDataObject::GetData(inputVector[0], 0);
+  vtkDataObject* output = vtkDataObject::GetData(outputVector, 0);
+  if (!input || !output)
+  {
+    vtkErrorMacro("Missing input or output.");
+    return 0;
+  }
+
+  Settings s;
+  SelectionFromAlgorithm(this, PRESSURE_ARRAY, s.Pressure);
+  SelectionFromAlgorithm(this, DENSITY_ARRAY, s.DensityArray);
+  SelectionFromAlgorithm(this, WALL_SHEAR_STRESS_ARRAY, s.WallShearStress);
+  SelectionFromAlgorithm(this, VELOCITY_GRADIENT_ARRAY, s.VelocityGradient);
+  SelectionFromAlgorithm(this, VISCOSITY_ARRAY, s.ViscosityArray);
+  SelectionFromAlgorithm(this, TURBULENT_VISCOSITY_ARRAY, s.TurbulentViscosity);
+  s.PressurePerUnitDensity = this->PressureKind == PER_UNIT_DENSITY;
+  s.ShearPerUnitDensity = this->WallShearStressKind == PER_UNIT_DENSITY;
+  s.Kinematic = this->ViscosityKind == PER_UNIT_DENSITY;
+  s.ShearSource = this->ShearSource;
+  s.Orientation = this->Orientation;
+  s.IncludeNormal = this->IncludeNormalViscousStress;
+  s.CheckOrientation = this->CheckOrientation;
+  s.ReferencePressure = this->ReferencePressure;
+  s.Density = this->Density;
+  s.Viscosity = this->Viscosity;
+  s.DynamicPressure = 0.5 * this->Density * this->ReferenceSpeed * this->ReferenceSpeed;
+  const double ln = wallloads::Norm(this->LoadDirection);
+  if (!(ln > 0) || !std::isfinite(ln))
+  {
+    vtkErrorMacro("LoadDirection must be a non-zero finite vector.");
+    return 0;
+  }
+  for (int k = 0; k < 3; ++k)
+  {
+    s.LoadDirection[k] = this->LoadDirection[k] / ln;
+  }
+  if (s.ShearSource == WALL_SHEAR_STRESS && !s.WallShearStress.Set())
+  {
+    vtkErrorMacro("ShearSource is 'Wall shear stress array' but no WallShearStress array is selected.");
+    return 0;
+  }
+  if (s.ShearSource == VELOCITY_GRADIENT && !s.VelocityGradient.Set())
+  {
+    vtkErrorMacro("ShearSource is 'Velocity gradient' but no VelocityGradient array is selected.");
+    return 0;
+  }
+
+  // Every leaf, locally: no collectives inside, so ranks holding different
+  // blocks stay in step. One reduction at the end.
+  Tally tally;
+  std::string error;
+  bool ok = true;
+  if (auto* inTree = vtkDataObjectTree::SafeDownCast(input))
+  {
+    auto* outTree = vtkDataObjectTree::SafeDownCast(output);
+    outTree->CopyStructure(inTree);
+    vtkSmartPointer<vtkDataObjectTreeIterator> it;
+    it.TakeReference(inTree->NewTreeIterator());
+    it->VisitOnlyLeavesOn();
+    it->TraverseSubTreeOn();
+    for (it->InitTraversal(); ok && !it->IsDoneWithTraversal(); it->GoToNextItem())
+    {
+      auto* leaf = vtkDataSet::SafeDownCast(it->GetCurrentDataObject());
+      if (!leaf)
+      {
+        continue;
+      }
+      vtkSmartPointer<vtkDataSet> copy;
+      copy.TakeReference(leaf->NewInstance());
+      copy->ShallowCopy(leaf);
+      outTree->SetDataSet(it, copy);
+      std::string name;
+      if (it->HasCurrentMetaData() && it->GetCurrentMetaData()->Has(vtkCompositeDataSet::NAME()))
+      {
+        name = it->GetCurrentMetaData()->Get(vtkCompositeDataSet::NAME());
+      }
+      if (name.empty())
+      {
+        name = "#" + std::to_string(it->GetCurrentFlatIndex());
+      }
+      ok = ProcessLeaf(s, leaf, copy, name, tally, error);
+    }
+  }
+  else if (auto* ds = vtkDataSet::SafeDownCast(input))
+  {
+    auto* out = vtkDataSet::SafeDownCast(output);
+    out->ShallowCopy(ds);
+    ok = ProcessLeaf(s, ds, out, std::string(), tally, error);
+  }
+  else
+  {
+    error = std::string("Unsupported input type ") + input->GetClassName() + ".";
+    ok = false;
+  }
+
+  double global[9] = { ok ? 0.0 : 1.0, tally.WettedArea.Sum, tally.WettedArea.Carry,
+    tally.NonSurface, tally.Degenerate, tally.NonFinite, tally.Inconsistent, tally.OpenEdges,
+    tally.Faces };
+  GlobalSum(global, 9);
+  if (global[0] > 0)
+  {
+    if (!ok)
+    {
+      vtkErrorMacro(<< error);
+    }
+    else if (ProcessRank() == 0)
+    {
+      vtkErrorMacro("Bad input on another rank (see its message); no output.");
+    }
+    output->Initialize();
+    return 0;
+  }
+
+  vtkFieldData* fd = output->GetFieldData();
+  const double wetted = global[1] + global[2];
+  SetFieldValue(fd, names::WettedArea, &wetted, 1);
+  AddCount(fd, names::SkippedNonSurfaceCells, global[3]);
+  AddCount(fd, names::SkippedDegenerateFaces, global[4]);
+  AddCount(fd, names::SkippedNonFiniteFaces, global[5]);
+  if (s.CheckOrientation)
+  {
+    AddCount(fd, names::InconsistentlyOrientedFaces, global[6]);
+    AddCount(fd, names::OpenBoundaryEdges, global[7]);
+  }
+
+  if (ProcessRank() == 0)
+  {
+    if (global[8] == 0)
+    {
+      vtkWarningMacro("The input holds no wall faces: all loads are zero.");
+    }
+    std::ostringstream os;
+    if (global[3] > 0)
+    {
+      os << " " << static_cast<vtkIdType>(global[3])
+         << " non-surface cells (vertices, lines, strips or 3D cells) skipped;";
+    }
+    if (global[4] > 0)
+    {
+      os << " " << static_cast<vtkIdType>(global[4])
+         << " degenerate faces (fewer than 3 corners or zero area) skipped;";
+    }
+    if (global[5] > 0)
+    {
+      os << " " << static_cast<vtkIdType>(global[5])
+         << " faces with NaN/Inf coordinates or values skipped;";
+    }
+    if (global[6] > 0)
+    {
+      os << " " << static_cast<vtkIdType>(global[6])
+         << " faces are oriented against their neighbours (check the normals);";
+    }
+    if (!os.str().empty())
+    {
+      vtkWarningMacro(<< "Wall Traction:" << os.str()
+                      << " skipped faces carry NaN and no load.");
+    }
+  }
+  return 1;
+}
+
+//------------------------------------------------------------------------------
+void vtkWallTraction::PrintSelf(ostream& os, vtkIndent indent)
+{
+  this->Superclass::PrintSelf(os, indent);
+  os << indent << "PressureKind: " << this->PressureKind << "\n";
+  os << indent << "ReferencePressure: " << this->ReferencePressure << "\n";
+  os << indent << "Density: " << this->Density << "\n";
+  os << indent << "ShearSource: " << this->ShearSource << "\n";
+  os << indent << "WallShearStressKind: " << this->WallShearStressKind << "\n";
+  os << indent << "Viscosity: " << this->Viscosity << "\n";
+  os << indent << "ViscosityKind: " << this->ViscosityKind << "\n";
+  os << indent << "IncludeNormalViscousStress: " << this->IncludeNormalViscousStress << "\n";
+  os << indent << "Orientation: " << this->Orientation << "\n";
+  os << indent << "CheckOrientation: " << this->CheckOrientation << "\n";
+  os << indent << "LoadDirection: " << this->LoadDirection[0] << " " << this->LoadDirection[1]
+     << " " << this->LoadDirection[2] << "\n";
+  os << indent << "ReferenceSpeed: " << this->ReferenceSpeed << "\n";
+}

@@ -1,0 +1,205 @@
+// SPDX-License-Identifier: BSD-3-Clause
+/**
+ * @class   vtkWallTraction
+ * @brief   Pressure and viscous traction and force on every wall face.
+ *
+ * vtkWallTraction takes wall surfaces (vtkPolyData, or a vtkUnstructuredGrid
+ * of 2D cells; plain or composite) with a pressure and, optionally, a viscous
+ * source, and adds per-face cell arrays (all double, SI units):
+ *
+ * - `Wall Normal` (unit normal out of the wall, into the fluid)
+ * - `Face Area` (m^2)
+ * - `Pressure Traction` = -(p - p_ref) n (Pa), `Viscous Traction` (Pa),
+ *   `Traction` = sum (Pa)
+ * - `Pressure Force`, `Viscous Force`, `Force` = traction times area (N)
+ * - `Normal Viscous Stress` = (tau n).n (Pa), a diagnostic; left out of the
+ *   viscous traction unless IncludeNormalViscousStress is on
+ * - `Directional Traction` = Traction . e, e the unit LoadDirection (Pa)
+ * - `Pressure Coefficient` (p - p_ref)/q and, with a viscous source,
+ *   `Skin Friction Coefficient` |tau_w|/q, when ReferenceSpeed > 0,
+ *   q = 0.5 Density ReferenceSpeed^2
+ *
+ * and field data `Wetted Area` (m^2, summed over all ranks) and the counts of
+ * faces skipped by reason (`Skipped Non-Surface Cells` for vertices, lines,
+ * strips and 3D cells; `Skipped Degenerate Faces` for faces of fewer than 3
+ * corners or zero area; `Skipped Non-Finite Faces` for NaN/Inf coordinates or
+ * values), `Inconsistently Oriented Faces` and `Open Boundary Edges`.
+ * Skipped faces carry NaN in every per-face array.
+ *
+ * Pressure: a cell or point array (point values are averaged over the face
+ * corners); static (Pa), or per unit density (m^2/s^2) times Density or a
+ * density array. ReferencePressure (Pa) is subtracted.
+ *
+ * Viscous source (ShearSource): none; a wall shear stress array (Pa, or per
+ * unit density); or a velocity gradient array, 9 components row-major
+ * G[3i+j] = du_i/dx_j (the layout of vtkGradientFilter), with
+ * tau = mu_eff (G + G^T) - (2/3) mu_eff tr(G) I, mu_eff = mu + mu_t from a
+ * constant or arrays, dynamic or kinematic (times density).
+ * The tangential part of tau n is the wall shear stress.
+ *
+ * Normals come from the geometry by Newell's method. Orientation: by default
+ * the stored vertex order is taken to point out of the fluid (as exported by
+ * most solvers) and is flipped; or as stored; or made to agree with an
+ * existing `Wall Normal` cell array. With CheckOrientation on, faces whose
+ * orientation disagrees with the majority of their connected patch (through
+ * shared point ids) are counted and reported.
+ *
+ * Arrays to process (SetInputArrayToProcess index): 0 pressure, 1 density,
+ * 2 wall shear stress, 3 velocity gradient, 4 viscosity, 5 turbulent
+ * viscosity. An unset or "None" name means not used.
+ *
+ * Ghost and MPI policy: per-face arrays are computed on every face, ghosts
+ * included; ghost faces (DUPLICATECELL or HIDDENCELL) are left out of
+ * `Wetted Area` and of the counts. Field-data totals are reduced over all
+ * ranks of the global controller, so every rank holds the global values.
+ * Composite inputs are handled whole, so ranks holding different blocks
+ * take part in the same collectives. The input is never modified.
+ *
+ * Errors (no output): a selected array missing (the message lists the arrays
+ * that exist) or of the wrong width; a zero LoadDirection.
+ */
+#ifndef vtkWallTraction_h
+#define vtkWallTraction_h
+
+#include "WallLoadsFiltersModule.h" // for export macro
+#include "vtkPassInputTypeAlgorithm.h"
+
+class WALLLOADSFILTERS_EXPORT vtkWallTraction : public vtkPassInputTypeAlgorithm
+{
+public:
+  static vtkWallTraction* New();
+  vtkTypeMacro(vtkWallTraction, vtkPassInputTypeAlgorithm);
+  void PrintSelf(ostream& os, vtkIndent indent) override;
+
+  /// Indices for SetInputArrayToProcess.
+  enum InputArrays
+  {
+    PRESSURE_ARRAY = 0,
+    DENSITY_ARRAY = 1,
+    WALL_SHEAR_STRESS_ARRAY = 2,
+    VELOCITY_GRADIENT_ARRAY = 3,
+    VISCOSITY_ARRAY = 4,
+    TURBULENT_VISCOSITY_ARRAY = 5
+  };
+  enum QuantityKinds
+  {
+    STATIC = 0,           ///< Pa (pressure, stress) or Pa s (viscosity: dynamic)
+    PER_UNIT_DENSITY = 1  ///< m^2/s^2 (pressure, stress) or m^2/s (viscosity: kinematic)
+  };
+  enum ShearSources
+  {
+    NO_SHEAR = 0,
+    WALL_SHEAR_STRESS = 1,
+    VELOCITY_GRADIENT = 2
+  };
+  enum Orientations
+  {
+    STORED_INTO_WALL = 0,  ///< stored order points out of the fluid: flip (default)
+    STORED_INTO_FLUID = 1, ///< stored order points into the fluid: keep
+    WALL_NORMAL_ARRAY = 2  ///< agree with the `Wall Normal` cell array
+  };
+
+  ///@{
+  /// Pressure kind: STATIC (Pa, default) or PER_UNIT_DENSITY (m^2/s^2, times density).
+  vtkSetClampMacro(PressureKind, int, STATIC, PER_UNIT_DENSITY);
+  vtkGetMacro(PressureKind, int);
+  ///@}
+
+  ///@{
+  /// Reference pressure p_ref in Pa, subtracted from the static pressure. Default 0.
+  vtkSetMacro(ReferencePressure, double);
+  vtkGetMacro(ReferencePressure, double);
+  ///@}
+
+  ///@{
+  /// Density in kg/m^3 (default 1): multiplies per-unit-density pressure,
+  /// stress and kinematic viscosity when no density array is selected, and
+  /// sets the dynamic pressure of the coefficients.
+  vtkSetMacro(Density, double);
+  vtkGetMacro(Density, double);
+  ///@}
+
+  ///@{
+  /// Viscous source: NO_SHEAR (default), WALL_SHEAR_STRESS or VELOCITY_GRADIENT.
+  vtkSetClampMacro(ShearSource, int, NO_SHEAR, VELOCITY_GRADIENT);
+  vtkGetMacro(ShearSource, int);
+  ///@}
+
+  ///@{
+  /// Kind of the wall shear stress array: STATIC (Pa, default) or PER_UNIT_DENSITY.
+  vtkSetClampMacro(WallShearStressKind, int, STATIC, PER_UNIT_DENSITY);
+  vtkGetMacro(WallShearStressKind, int);
+  ///@}
+
+  ///@{
+  /// Molecular viscosity when no viscosity array is selected. Default 1.8e-5
+  /// (dynamic, Pa s: air near 20 C, common practice).
+  vtkSetMacro(Viscosity, double);
+  vtkGetMacro(Viscosity, double);
+  ///@}
+
+  ///@{
+  /// Viscosity kind, for the constant and both arrays: STATIC means dynamic
+  /// (Pa s, default), PER_UNIT_DENSITY means kinematic (m^2/s, times density).
+  vtkSetClampMacro(ViscosityKind, int, STATIC, PER_UNIT_DENSITY);
+  vtkGetMacro(ViscosityKind, int);
+  ///@}
+
+  ///@{
+  /// Keep the normal viscous stress in the viscous traction and force. Default off.
+  vtkSetMacro(IncludeNormalViscousStress, bool);
+  vtkGetMacro(IncludeNormalViscousStress, bool);
+  vtkBooleanMacro(IncludeNormalViscousStress, bool);
+  ///@}
+
+  ///@{
+  /// Orientation of the stored faces; default STORED_INTO_WALL (flip).
+  vtkSetClampMacro(Orientation, int, STORED_INTO_WALL, WALL_NORMAL_ARRAY);
+  vtkGetMacro(Orientation, int);
+  ///@}
+
+  ///@{
+  /// Count faces oriented against their neighbours. Default on.
+  vtkSetMacro(CheckOrientation, bool);
+  vtkGetMacro(CheckOrientation, bool);
+  vtkBooleanMacro(CheckOrientation, bool);
+  ///@}
+
+  ///@{
+  /// Direction of `Directional Traction` (normalised). Default (1, 0, 0).
+  vtkSetVector3Macro(LoadDirection, double);
+  vtkGetVector3Macro(LoadDirection, double);
+  ///@}
+
+  ///@{
+  /// Reference speed in m/s for the coefficients; 0 (default) makes none.
+  vtkSetMacro(ReferenceSpeed, double);
+  vtkGetMacro(ReferenceSpeed, double);
+  ///@}
+
+protected:
+  vtkWallTraction();
+  ~vtkWallTraction() override = default;
+
+  int FillInputPortInformation(int port, vtkInformation* info) override;
+  int RequestData(vtkInformation*, vtkInformationVector**, vtkInformationVector*) override;
+
+  int PressureKind = STATIC;
+  double ReferencePressure = 0.0;
+  double Density = 1.0;
+  int ShearSource = NO_SHEAR;
+  int WallShearStressKind = STATIC;
+  double Viscosity = 1.8e-5;
+  int ViscosityKind = STATIC;
+  bool IncludeNormalViscousStress = false;
+  int Orientation = STORED_INTO_WALL;
+  bool CheckOrientation = true;
+  double LoadDirection[3] = { 1.0, 0.0, 0.0 };
+  double ReferenceSpeed = 0.0;
+
+private:
+  vtkWallTraction(const vtkWallTraction&) = delete;
+  void operator=(const vtkWallTraction&) = delete;
+};
+
+#endif

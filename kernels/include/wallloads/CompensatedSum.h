@@ -1,0 +1,63 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#pragma once
+/**
+ * Neumaier's compensated summation (Neumaier 1974, ZAMM 54:39-51).
+ *
+ * Totals over millions of faces are summed per thread and merged; plain
+ * summation would make the result depend on the thread count at the 1e-13
+ * level. The running compensation keeps the error independent of the number
+ * of terms, so sequential, threaded and MPI totals agree to round-off.
+ */
+#include <cmath>
+#include <cstddef>
+
+namespace wallloads
+{
+
+template <typename T>
+struct CompensatedSum
+{
+  T Sum = T(0);
+  T Carry = T(0);
+
+  void Add(T value)
+  {
+    const T t = this->Sum + value;
+    if (std::abs(this->Sum) >= std::abs(value))
+    {
+      this->Carry += (this->Sum - t) + value;
+    }
+    else
+    {
+      this->Carry += (value - t) + this->Sum;
+    }
+    this->Sum = t;
+  }
+
+  void Merge(const CompensatedSum& other)
+  {
+    this->Add(other.Sum);
+    this->Carry += other.Carry;
+  }
+
+  T Value() const { return this->Sum + this->Carry; }
+};
+
+/// A fixed number of compensated sums stored side by side; mergeable as a block.
+template <typename T, std::size_t N>
+struct CompensatedSums
+{
+  CompensatedSum<T> Terms[N];
+
+  void Add(std::size_t i, T value) { this->Terms[i].Add(value); }
+  void Merge(const CompensatedSums& other)
+  {
+    for (std::size_t i = 0; i < N; ++i)
+    {
+      this->Terms[i].Merge(other.Terms[i]);
+    }
+  }
+  T Value(std::size_t i) const { return this->Terms[i].Value(); }
+};
+
+} // namespace wallloads

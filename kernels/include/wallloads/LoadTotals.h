@@ -1,0 +1,126 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#pragma once
+/**
+ * Per-region sums of wall loads: wetted area, pressure and viscous force,
+ * and their moments about a moment centre r0, M = sum (c - r0) x f with c the
+ * face's area centroid. Compensated sums, mergeable across threads and ranks.
+ */
+#include "wallloads/CompensatedSum.h"
+#include "wallloads/LoadAxes.h"
+#include "wallloads/Vector3.h"
+
+#include <cstddef>
+
+namespace wallloads
+{
+
+/// Slots of the running sums, in the order they are reduced across ranks.
+enum LoadSlot : std::size_t
+{
+  AreaSlot = 0,
+  PressureForceSlot = 1,  // 3 slots
+  ViscousForceSlot = 4,   // 3 slots
+  PressureMomentSlot = 7, // 3 slots
+  ViscousMomentSlot = 10, // 3 slots
+  FaceCountSlot = 13,
+  SkippedCountSlot = 14,
+  NumLoadSlots = 15
+};
+
+template <typename T>
+struct LoadSums
+{
+  CompensatedSums<T, NumLoadSlots> Sums;
+
+  void AddFace(T area, const T centroid[3], const T r0[3], const T fp[3], const T fv[3])
+  {
+    const T arm[3] = { centroid[0] - r0[0], centroid[1] - r0[1], centroid[2] - r0[2] };
+    T mp[3];
+    T mv[3];
+    Cross(arm, fp, mp);
+    Cross(arm, fv, mv);
+    this->Sums.Add(AreaSlot, area);
+    for (std::size_t i = 0; i < 3; ++i)
+    {
+      this->Sums.Add(PressureForceSlot + i, fp[i]);
+      this->Sums.Add(ViscousForceSlot + i, fv[i]);
+      this->Sums.Add(PressureMomentSlot + i, mp[i]);
+      this->Sums.Add(ViscousMomentSlot + i, mv[i]);
+    }
+    this->Sums.Add(FaceCountSlot, T(1));
+  }
+
+  void AddSkipped() { this->Sums.Add(SkippedCountSlot, T(1)); }
+  void Merge(const LoadSums& other) { this->Sums.Merge(other.Sums); }
+};
+
+/// Reference values that turn loads into coefficients.
+template <typename T>
+struct ReferenceValues
+{
+  T Density = 1;
+  T Speed = 0; ///< 0: no coefficients
+  T Area = 1;
+  T Length = 1; ///< pitching moment
+  T Span = 1;   ///< rolling and yawing moments
+  T DynamicPressure() const { return T(0.5) * this->Density * this->Speed * this->Speed; }
+};
+
+/// The finished loads of one region, as reported.
+template <typename T>
+struct RegionLoads
+{
+  T Area = 0;
+  T FaceCount = 0;
+  T SkippedCount = 0;
+  T PressureForce[3] = { 0, 0, 0 };
+  T ViscousForce[3] = { 0, 0, 0 };
+  T Force[3] = { 0, 0, 0 };
+  T PressureMoment[3] = { 0, 0, 0 };
+  T ViscousMoment[3] = { 0, 0, 0 };
+  T Moment[3] = { 0, 0, 0 };
+  T Drag = 0, SideForce = 0, Lift = 0;
+  T RollingMoment = 0, PitchingMoment = 0, YawingMoment = 0;
+  T DragCoefficient = 0, SideForceCoefficient = 0, LiftCoefficient = 0;
+  T RollingMomentCoefficient = 0, PitchingMomentCoefficient = 0, YawingMomentCoefficient = 0;
+  T LineOfActionPoint[3] = { 0, 0, 0 };
+  T ResidualCouple = 0;
+};
+
+/// Turn raw sums (values of the slots above) into reported loads.
+template <typename T>
+inline void FinishRegion(const T slots[NumLoadSlots], const T r0[3], const LoadAxes<T>& axes,
+  const ReferenceValues<T>& ref, RegionLoads<T>& out)
+{
+  out.Area = slots[AreaSlot];
+  out.FaceCount = slots[FaceCountSlot];
+  out.SkippedCount = slots[SkippedCountSlot];
+  for (int i = 0; i < 3; ++i)
+  {
+    out.PressureForce[i] = slots[PressureForceSlot + i];
+    out.ViscousForce[i] = slots[ViscousForceSlot + i];
+    out.Force[i] = out.PressureForce[i] + out.ViscousForce[i];
+    out.PressureMoment[i] = slots[PressureMomentSlot + i];
+    out.ViscousMoment[i] = slots[ViscousMomentSlot + i];
+    out.Moment[i] = out.PressureMoment[i] + out.ViscousMoment[i];
+  }
+  out.Drag = Dot(out.Force, axes.Drag);
+  out.SideForce = Dot(out.Force, axes.Side);
+  out.Lift = Dot(out.Force, axes.Lift);
+  out.RollingMoment = Dot(out.Moment, axes.Drag);
+  out.PitchingMoment = Dot(out.Moment, axes.Side);
+  out.YawingMoment = Dot(out.Moment, axes.Lift);
+  const T qA = ref.DynamicPressure() * ref.Area;
+  if (qA > T(0))
+  {
+    out.DragCoefficient = out.Drag / qA;
+    out.SideForceCoefficient = out.SideForce / qA;
+    out.LiftCoefficient = out.Lift / qA;
+    out.RollingMomentCoefficient = out.RollingMoment / (qA * ref.Span);
+    out.PitchingMomentCoefficient = out.PitchingMoment / (qA * ref.Length);
+    out.YawingMomentCoefficient = out.YawingMoment / (qA * ref.Span);
+  }
+  LineOfAction(out.Force, out.Moment, r0, out.LineOfActionPoint, out.ResidualCouple);
+}
+
+} // namespace wallloads

@@ -1,0 +1,1 @@
+"""WallLoads: surface loads from flow results (ParaView plugin companion package)."""

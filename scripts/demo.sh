@@ -1,0 +1,10 @@
+#!/usr/bin/env bash
+# The main job on the bundled demo scenario: install, build, then compute the
+# loads on the spinning bead and write out/bead_loads.csv and a PNG.
+set -euo pipefail
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+bash "$ROOT/scripts/install-deps.sh"
+bash "$ROOT/scripts/build.sh"
+source "$ROOT/scripts/env.sh"
+cd "$ROOT"
+xvfb-run -a -s "-screen 0 1280x1024x24" pvbatch data/bead_loads.py "$ROOT/out"

@@ -75,6 +75,13 @@ struct SumLoop
       {
         region = static_cast<std::size_t>(std::llround(In.Region.Get(c, 0)) - In.RegionBase);
       }
+      I buffer[4];
+      const I* ids = nullptr;
+      const int n = Topo.Corners(c, ids, buffer);
+      if (n == 0)
+      {
+        continue; // not a face (vertex, line, 3D cell): Wall Traction counted it
+      }
       Sums& s = sums[region];
       const double fp[3] = { In.ForceP.Get(c, 0), In.ForceP.Get(c, 1), In.ForceP.Get(c, 2) };
       const double fv[3] = { In.ForceV.Get(c, 0), In.ForceV.Get(c, 1), In.ForceV.Get(c, 2) };
@@ -84,11 +91,8 @@ struct SumLoop
         s.AddSkipped();
         continue;
       }
-      I buffer[4];
-      const I* ids = nullptr;
-      const int n = Topo.Corners(c, ids, buffer);
       FaceFrame<double> frame;
-      if (n == 0 || ComputeFaceFrame<double>(points, ids, n, frame) != FaceStatus::Ok)
+      if (ComputeFaceFrame<double>(points, ids, n, frame) != FaceStatus::Ok)
       {
         s.AddSkipped();
         continue;
@@ -332,8 +336,21 @@ int vtkLoadIntegration::RequestData(
       error = "Block '" + leaves[i].Name + "' has cells but no points.";
     }
   }
-  double agreed[3] = { error.empty() ? 0.0 : 1.0, localMax, -localMin };
-  GlobalMax(agreed, 3);
+  double localCells = 0;
+  for (const Leaf& leaf : leaves)
+  {
+    localCells += leaf.Data ? static_cast<double>(leaf.Data->GetNumberOfCells()) : 0.0;
+  }
+  double agreed[4] = { error.empty() ? 0.0 : 1.0, localMax, -localMin, localCells };
+  GlobalMax(agreed, 4);
+  if (agreed[0] == 0 && agreed[3] == 0 && !input->GetFieldData()->GetArray(names::WettedArea))
+  {
+    // An empty input that never went through Wall Traction (or that Wall
+    // Traction refused): zero loads would be passed off as a result.
+    error = "Load Integration's input holds no faces and no 'Wetted Area': it is not the output "
+            "of Wall Traction, or Wall Traction failed upstream (see its error).";
+    agreed[0] = 1;
+  }
   if (agreed[0] > 0)
   {
     if (!error.empty())
@@ -484,7 +501,8 @@ int vtkLoadIntegration::RequestData(
   {
     auto regionColumn = vtkSmartPointer<vtkStringArray>::New();
     regionColumn->SetName("Region");
-    auto idColumn = vtkSmartPointer<vtkIdTypeArray>::New();
+    // Double, so that the Total row can be NaN and never equal a region value.
+    auto idColumn = vtkSmartPointer<vtkDoubleArray>::New();
     idColumn->SetName("Region Id");
     const std::size_t numRows = rows.size() + 1;
     regionColumn->SetNumberOfValues(static_cast<vtkIdType>(numRows));
@@ -492,10 +510,10 @@ int vtkLoadIntegration::RequestData(
     for (std::size_t r = 0; r < rows.size(); ++r)
     {
       regionColumn->SetValue(static_cast<vtkIdType>(r), rowNames[r]);
-      idColumn->SetValue(static_cast<vtkIdType>(r), static_cast<vtkIdType>(rowIds[r]));
+      idColumn->SetValue(static_cast<vtkIdType>(r), static_cast<double>(rowIds[r]));
     }
     regionColumn->SetValue(static_cast<vtkIdType>(rows.size()), "Total");
-    idColumn->SetValue(static_cast<vtkIdType>(rows.size()), -1);
+    idColumn->SetValue(static_cast<vtkIdType>(rows.size()), std::nan(""));
     table->AddColumn(regionColumn);
     table->AddColumn(idColumn);
     std::vector<std::vector<double>> values;

@@ -23,7 +23,9 @@
 
 #include <cmath>
 #include <limits>
+#include <cstdint>
 #include <sstream>
+#include <vector>
 
 vtkStandardNewMacro(vtkWallTraction);
 
@@ -61,6 +63,9 @@ struct Tally
 /// Output arrays of one leaf, as raw pointers for the face loop.
 struct Outputs
 {
+  /// Orientation check: 0 invalid geometry, 1 valid, 2 valid and flipped
+  /// against the stored order by the Wall Normal array.
+  std::uint8_t* FaceOk = nullptr;
   double *Normal, *Area, *TractionP, *TractionV, *Traction, *ForceP, *ForceV, *Force, *NormalV,
     *Directional;
   double* Cp = nullptr;
@@ -131,12 +136,14 @@ struct FaceLoop
       const int n = Topo.Corners(c, ids, buffer);
       if (n == 0)
       {
+        Out.FaceOk[c] = 0;
         this->MarkSkipped(c);
         tally.NonSurface += counted;
         continue;
       }
       FaceFrame<double> frame;
       const FaceStatus status = ComputeFaceFrame<double>(points, ids, n, frame);
+      Out.FaceOk[c] = status == FaceStatus::Ok;
       if (status != FaceStatus::Ok)
       {
         this->MarkSkipped(c);
@@ -149,6 +156,10 @@ struct FaceLoop
         const double d = frame.Normal[0] * In.WallNormal.Get(c, 0) +
           frame.Normal[1] * In.WallNormal.Get(c, 1) + frame.Normal[2] * In.WallNormal.Get(c, 2);
         sign = d > 0 ? 1.0 : (d < 0 ? -1.0 : std::numeric_limits<double>::quiet_NaN());
+      }
+      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0)
+      {
+        Out.FaceOk[c] = 2;
       }
       const double normal[3] = { sign * frame.Normal[0], sign * frame.Normal[1],
         sign * frame.Normal[2] };
@@ -247,8 +258,12 @@ double* NewCellArray(vtkDataSet* out, const char* name, int comps)
 }
 
 template <typename I, typename P>
-void RunFaces(const Settings& s, const Inputs& in, const Outputs& out, vtkDataSet* ds, Tally& tally)
+void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, Tally& tally)
 {
+  // One byte per face: faces whose geometry is valid take part in the
+  // orientation check even when their values are NaN (no false open edges).
+  std::vector<std::uint8_t> faceOk(static_cast<std::size_t>(ds->GetNumberOfCells()), 0);
+  out.FaceOk = faceOk.data();
   FaceTopology<I> topo;
   MakeFaceTopology<I>(ds, topo);
   FaceLoop<I, P> loop(s, in, out, topo);
@@ -265,13 +280,14 @@ void RunFaces(const Settings& s, const Inputs& in, const Outputs& out, vtkDataSe
   }
   if (s.CheckOrientation)
   {
-    const double* area = out.Area;
+    const std::uint8_t* ok = faceOk.data();
     const unsigned char* ghosts = in.Ghosts;
-    auto corners = [&](std::int64_t f, const I*& ids, I buffer[4]) -> int {
-      if (!std::isfinite(area[f]) || !IsCountedCell(ghosts, f))
+    auto corners = [&](std::int64_t f, const I*& ids, I buffer[4], bool& reversed) -> int {
+      if (!ok[f] || !IsCountedCell(ghosts, f))
       {
         return 0;
       }
+      reversed = ok[f] == 2;
       return topo.Corners(f, ids, buffer);
     };
     auto sorter = [](auto b, auto e) { vtkSMPTools::Sort(b, e); };
@@ -305,6 +321,30 @@ bool SelectionFromAlgorithm(vtkAlgorithm* alg, int index, ArraySelection& sel)
 bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::string& blockName,
   Tally& tally, std::string& error)
 {
+  if (in->GetNumberOfCells() == 0)
+  {
+    // An empty piece (common on some ranks) needs no arrays; it gets the
+    // output arrays, empty, so that every piece has the same arrays.
+    for (const char* name : { names::WallNormal, names::PressureTraction, names::ViscousTraction,
+           names::Traction, names::PressureForce, names::ViscousForce, names::Force })
+    {
+      NewCellArray(out, name, 3);
+    }
+    for (const char* name :
+      { names::FaceArea, names::NormalViscousStress, names::DirectionalTraction })
+    {
+      NewCellArray(out, name, 1);
+    }
+    if (s.DynamicPressure > 0)
+    {
+      NewCellArray(out, names::PressureCoefficient, 1);
+      if (s.ShearSource != vtkWallTraction::NO_SHEAR)
+      {
+        NewCellArray(out, names::SkinFrictionCoefficient, 1);
+      }
+    }
+    return true;
+  }
   Inputs inputs;
   auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
     if (!sel.Set())
@@ -355,10 +395,6 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
     {
       o.Cf = NewCellArray(out, names::SkinFrictionCoefficient, 1);
     }
-  }
-  if (in->GetNumberOfCells() == 0)
-  {
-    return true;
   }
   if (!inputs.Points.Data)
   {

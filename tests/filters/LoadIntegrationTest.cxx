@@ -185,3 +185,38 @@ TEST(LoadIntegration, NeedsWallTractionOutput)
   EXPECT_TRUE(m.ErrorContains("Wall Traction")) << (m.Errors.empty() ? "" : m.Errors[0]);
   EXPECT_TRUE(m.ErrorContains("'Pressure Force'"));
 }
+
+// An empty input that did not come through Wall Traction (for instance
+// because Wall Traction failed and left an empty output) is an error, not a
+// table of zeros.
+TEST(LoadIntegration, EmptyInputWithoutWallTractionIsAnError)
+{
+  auto empty = vtkSmartPointer<vtkPolyData>::New();
+  auto li = vtkSmartPointer<vtkLoadIntegration>::New();
+  li->SetInputDataObject(empty);
+  Messages m;
+  m.Watch(li);
+  li->Update();
+  EXPECT_TRUE(m.ErrorContains("Wall Traction failed upstream"))
+    << (m.Errors.empty() ? "" : m.Errors[0]);
+}
+
+// The Total row's Region Id is NaN, so it never equals a region value (-1 here).
+TEST(LoadIntegration, TotalRowIdNeverCollides)
+{
+  auto box = PressurisedBox({ 0, 0, 0 }, { 1, 1, 1 }, 1.0);
+  auto ids = vtkSmartPointer<vtkIntArray>::New();
+  ids->SetName("zone");
+  for (int v : { -1, -1, -1, 0, 0, 0 })
+  {
+    ids->InsertNextValue(v);
+  }
+  box->GetCellData()->AddArray(ids);
+  auto li = Integrate(box);
+  li->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "zone");
+  li->Update();
+  vtkTable* t = vtkTable::SafeDownCast(li->GetOutputDataObject(1));
+  ASSERT_EQ(t->GetNumberOfRows(), 3);
+  EXPECT_DOUBLE_EQ(Cell(t, Row(t, "zone -1"), "Region Id"), -1.0);
+  EXPECT_TRUE(std::isnan(Cell(t, Row(t, "Total"), "Region Id")));
+}

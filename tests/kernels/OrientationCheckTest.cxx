@@ -4,6 +4,7 @@
 #include <gtest/gtest.h>
 
 #include <algorithm>
+#include <set>
 #include <cstdint>
 #include <vector>
 
@@ -15,9 +16,12 @@ using Faces = std::vector<std::vector<std::int64_t>>;
 const Faces Cube = { { 0, 3, 2, 1 }, { 4, 5, 6, 7 }, { 0, 1, 5, 4 }, { 1, 2, 6, 5 },
   { 2, 3, 7, 6 }, { 3, 0, 4, 7 } };
 
+std::set<std::int64_t> Reversed;
+
 OrientationReport Check(const Faces& faces)
 {
-  auto corners = [&](std::int64_t f, const std::int64_t*& ids, std::int64_t*) -> int {
+  auto corners = [&](std::int64_t f, const std::int64_t*& ids, std::int64_t*, bool& reversed) -> int {
+    reversed = Reversed.count(f) > 0;
     ids = faces[f].data();
     return static_cast<int>(faces[f].size());
   };
@@ -69,4 +73,16 @@ TEST(OrientationCheck, SeparatePatchesAreJudgedAlone)
   const auto r = Check(f);
   EXPECT_EQ(r.Patches, 2);
   EXPECT_EQ(r.InconsistentFaces, 0);
+}
+
+// A face stored backwards but declared reversed (its orientation decided by a
+// normal array) is consistent.
+TEST(OrientationCheck, DeclaredReversalCounts)
+{
+  Faces f = Cube;
+  std::reverse(f[2].begin(), f[2].end());
+  Reversed = { 2 };
+  EXPECT_EQ(Check(f).InconsistentFaces, 0);
+  Reversed.clear();
+  EXPECT_EQ(Check(f).InconsistentFaces, 1);
 }

@@ -24,7 +24,8 @@ enum LoadSlot : std::size_t
   ViscousMomentSlot = 10, // 3 slots
   FaceCountSlot = 13,
   SkippedCountSlot = 14,
-  NumLoadSlots = 15
+  ForceMagnitudeSlot = 15, // sum of |f|: the scale below which F is round-off
+  NumLoadSlots = 16
 };
 
 template <typename T>
@@ -48,6 +49,8 @@ struct LoadSums
       this->Sums.Add(ViscousMomentSlot + i, mv[i]);
     }
     this->Sums.Add(FaceCountSlot, T(1));
+    const T f[3] = { fp[0] + fv[0], fp[1] + fv[1], fp[2] + fv[2] };
+    this->Sums.Add(ForceMagnitudeSlot, Norm(f));
   }
 
   void AddSkipped() { this->Sums.Add(SkippedCountSlot, T(1)); }
@@ -87,6 +90,14 @@ struct RegionLoads
   T ResidualCouple = 0;
 };
 
+/// Relative size of a resultant, against the sum of face-force magnitudes,
+/// below which it is treated as zero for the line of action.
+template <typename T>
+constexpr T PureCoupleTolerance()
+{
+  return T(1e-12);
+}
+
 /// Turn raw sums (values of the slots above) into reported loads.
 template <typename T>
 inline void FinishRegion(const T slots[NumLoadSlots], const T r0[3], const LoadAxes<T>& axes,
@@ -120,7 +131,14 @@ inline void FinishRegion(const T slots[NumLoadSlots], const T r0[3], const LoadA
     out.PitchingMomentCoefficient = out.PitchingMoment / (qA * ref.Length);
     out.YawingMomentCoefficient = out.YawingMoment / (qA * ref.Span);
   }
-  LineOfAction(out.Force, out.Moment, r0, out.LineOfActionPoint, out.ResidualCouple);
+  // A resultant that is round-off of the face forces (a pure couple on a
+  // closed surface) has no line of action: report NaN rather than a point
+  // 1e16 m away. 1e-12 of the summed magnitudes is far above the rounding
+  // error of the sum and far below any resolved force.
+  const T zero[3] = { 0, 0, 0 };
+  const bool resolved = Norm(out.Force) > PureCoupleTolerance<T>() * slots[ForceMagnitudeSlot];
+  LineOfAction(resolved ? out.Force : zero, out.Moment, r0, out.LineOfActionPoint,
+    out.ResidualCouple);
 }
 
 } // namespace wallloads

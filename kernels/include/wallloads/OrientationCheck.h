@@ -110,9 +110,11 @@ struct ParityUnionFind
 } // namespace detail
 
 /**
- * Check faces 0..numFaces-1. `corners(f, ids, buffer)` returns the number of
- * corner ids of face f and points `ids` at them (0: face not checked);
- * `buffer` has room for 4 ids for callers that must reorder corners.
+ * Check faces 0..numFaces-1. `corners(f, ids, buffer, reversed)` returns the
+ * number of corner ids of face f and points `ids` at them (0: face not
+ * checked); `buffer` has room for 4 ids for callers that must reorder
+ * corners; setting `reversed` makes the face count as traversed backwards
+ * (a face whose orientation is decided elsewhere, e.g. by a normal array).
  * `sorter(begin, end)` sorts the half-edges (pass a parallel sort to thread it).
  */
 template <typename I, typename Corners, typename Sorter>
@@ -126,7 +128,8 @@ OrientationReport CheckOrientation(std::int64_t numFaces, Corners corners, Sorte
   {
     I buffer[4];
     const I* ids = nullptr;
-    const int n = corners(f, ids, buffer);
+    bool reversed = false;
+    const int n = corners(f, ids, buffer, reversed);
     if (n < 3)
     {
       continue;
@@ -140,8 +143,8 @@ OrientationReport CheckOrientation(std::int64_t numFaces, Corners corners, Sorte
       {
         continue;
       }
-      const bool forward = a < b;
-      edges.push_back({ forward ? a : b, forward ? b : a, f, forward });
+      const bool forward = (a < b) != reversed;
+      edges.push_back({ a < b ? a : b, a < b ? b : a, f, forward });
     }
   }
   sorter(edges.begin(), edges.end());

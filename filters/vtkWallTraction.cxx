@@ -45,6 +45,7 @@ struct Settings
   int Orientation = 0;
   bool IncludeNormal = false;
   bool CheckOrientation = true;
+  bool AllArrays = true;
   double ReferencePressure = 0;
   double Density = 1;
   double Viscosity = 0;
@@ -70,6 +71,7 @@ struct Outputs
     *Directional;
   double* Cp = nullptr;
   double* Cf = nullptr;
+  bool Full = true; ///< false: only Face Area, Pressure Force and Viscous Force
 };
 
 /// Inputs of one leaf.
@@ -108,12 +110,20 @@ struct FaceLoop
   void MarkSkipped(vtkIdType c) const
   {
     const double nan = std::numeric_limits<double>::quiet_NaN();
-    for (double* a : { Out.Normal, Out.TractionP, Out.TractionV, Out.Traction, Out.ForceP,
-           Out.ForceV, Out.Force })
+    Out.Area[c] = nan;
+    for (double* a : { Out.ForceP, Out.ForceV })
     {
       a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
     }
-    Out.Area[c] = Out.NormalV[c] = Out.Directional[c] = nan;
+    if (!Out.Full)
+    {
+      return;
+    }
+    for (double* a : { Out.Normal, Out.TractionP, Out.TractionV, Out.Traction, Out.Force })
+    {
+      a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
+    }
+    Out.NormalV[c] = Out.Directional[c] = nan;
     if (Out.Cp)
     {
       Out.Cp[c] = nan;
@@ -214,20 +224,26 @@ struct FaceLoop
         continue;
       }
       const double A = frame.Area;
+      Out.Area[c] = A;
       for (int k = 0; k < 3; ++k)
       {
-        const vtkIdType j = 3 * c + k;
-        Out.Normal[j] = normal[k];
-        Out.TractionP[j] = t.Pressure[k];
-        Out.TractionV[j] = t.Viscous[k];
-        Out.Traction[j] = t.Total[k];
-        Out.ForceP[j] = t.Pressure[k] * A;
-        Out.ForceV[j] = t.Viscous[k] * A;
-        Out.Force[j] = t.Total[k] * A;
+        Out.ForceP[3 * c + k] = t.Pressure[k] * A;
+        Out.ForceV[3 * c + k] = t.Viscous[k] * A;
       }
-      Out.Area[c] = A;
-      Out.NormalV[c] = t.NormalViscous;
-      Out.Directional[c] = Dot(t.Total, S.LoadDirection);
+      if (Out.Full)
+      {
+        for (int k = 0; k < 3; ++k)
+        {
+          const vtkIdType j = 3 * c + k;
+          Out.Normal[j] = normal[k];
+          Out.TractionP[j] = t.Pressure[k];
+          Out.TractionV[j] = t.Viscous[k];
+          Out.Traction[j] = t.Total[k];
+          Out.Force[j] = t.Total[k] * A;
+        }
+        Out.NormalV[c] = t.NormalViscous;
+        Out.Directional[c] = Dot(t.Total, S.LoadDirection);
+      }
       if (Out.Cp)
       {
         Out.Cp[c] = tin.GaugePressure / S.DynamicPressure;
@@ -290,9 +306,8 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
       reversed = ok[f] == 2;
       return topo.Corners(f, ids, buffer);
     };
-    auto sorter = [](auto b, auto e) { vtkSMPTools::Sort(b, e); };
     const OrientationReport report =
-      CheckOrientation<I>(ds->GetNumberOfCells(), corners, sorter);
+      CheckOrientation<I>(ds->GetNumberOfCells(), ds->GetNumberOfPoints(), corners);
     tally.Inconsistent += static_cast<double>(report.InconsistentFaces);
     tally.OpenEdges += static_cast<double>(report.BoundaryEdges);
   }
@@ -325,13 +340,19 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   {
     // An empty piece (common on some ranks) needs no arrays; it gets the
     // output arrays, empty, so that every piece has the same arrays.
+    NewCellArray(out, names::FaceArea, 1);
+    NewCellArray(out, names::PressureForce, 3);
+    NewCellArray(out, names::ViscousForce, 3);
+    if (!s.AllArrays)
+    {
+      return true;
+    }
     for (const char* name : { names::WallNormal, names::PressureTraction, names::ViscousTraction,
-           names::Traction, names::PressureForce, names::ViscousForce, names::Force })
+           names::Traction, names::Force })
     {
       NewCellArray(out, name, 3);
     }
-    for (const char* name :
-      { names::FaceArea, names::NormalViscousStress, names::DirectionalTraction })
+    for (const char* name : { names::NormalViscousStress, names::DirectionalTraction })
     {
       NewCellArray(out, name, 1);
     }
@@ -378,17 +399,21 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   inputs.Ghosts = CellGhostMask(in);
 
   Outputs o;
-  o.Normal = NewCellArray(out, names::WallNormal, 3);
+  o.Full = s.AllArrays;
   o.Area = NewCellArray(out, names::FaceArea, 1);
-  o.TractionP = NewCellArray(out, names::PressureTraction, 3);
-  o.TractionV = NewCellArray(out, names::ViscousTraction, 3);
-  o.Traction = NewCellArray(out, names::Traction, 3);
   o.ForceP = NewCellArray(out, names::PressureForce, 3);
   o.ForceV = NewCellArray(out, names::ViscousForce, 3);
-  o.Force = NewCellArray(out, names::Force, 3);
-  o.NormalV = NewCellArray(out, names::NormalViscousStress, 1);
-  o.Directional = NewCellArray(out, names::DirectionalTraction, 1);
-  if (s.DynamicPressure > 0)
+  if (o.Full)
+  {
+    o.Normal = NewCellArray(out, names::WallNormal, 3);
+    o.TractionP = NewCellArray(out, names::PressureTraction, 3);
+    o.TractionV = NewCellArray(out, names::ViscousTraction, 3);
+    o.Traction = NewCellArray(out, names::Traction, 3);
+    o.Force = NewCellArray(out, names::Force, 3);
+    o.NormalV = NewCellArray(out, names::NormalViscousStress, 1);
+    o.Directional = NewCellArray(out, names::DirectionalTraction, 1);
+  }
+  if (s.DynamicPressure > 0 && o.Full)
   {
     o.Cp = NewCellArray(out, names::PressureCoefficient, 1);
     if (s.ShearSource != vtkWallTraction::NO_SHEAR)
@@ -480,6 +505,7 @@ int vtkWallTraction::RequestData(
   s.Orientation = this->Orientation;
   s.IncludeNormal = this->IncludeNormalViscousStress;
   s.CheckOrientation = this->CheckOrientation;
+  s.AllArrays = this->PerFaceArrays == ALL_ARRAYS;
   s.ReferencePressure = this->ReferencePressure;
   s.Density = this->Density;
   s.Viscosity = this->Viscosity;
@@ -636,4 +662,5 @@ void vtkWallTraction::PrintSelf(ostream& os, vtkIndent indent)
   os << indent << "LoadDirection: " << this->LoadDirection[0] << " " << this->LoadDirection[1]
      << " " << this->LoadDirection[2] << "\n";
   os << indent << "ReferenceSpeed: " << this->ReferenceSpeed << "\n";
+  os << indent << "PerFaceArrays: " << this->PerFaceArrays << "\n";
 }

@@ -171,6 +171,19 @@ public:
   vtkGetVector3Macro(LoadDirection, double);
   ///@}
 
+  enum PerFaceArraySets
+  {
+    ALL_ARRAYS = 0, ///< every array listed above (default)
+    FORCES_ONLY = 1 ///< `Face Area`, `Pressure Force`, `Viscous Force`: what Load Integration needs
+  };
+
+  ///@{
+  /// Which per-face arrays to make. FORCES_ONLY writes 56 bytes per face
+  /// instead of about 190, for batch runs that want totals only.
+  vtkSetClampMacro(PerFaceArrays, int, ALL_ARRAYS, FORCES_ONLY);
+  vtkGetMacro(PerFaceArrays, int);
+  ///@}
+
   ///@{
   /// Reference speed in m/s for the coefficients; 0 (default) makes none.
   vtkSetMacro(ReferenceSpeed, double);
@@ -196,6 +209,7 @@ protected:
   bool CheckOrientation = true;
   double LoadDirection[3] = { 1.0, 0.0, 0.0 };
   double ReferenceSpeed = 0.0;
+  int PerFaceArrays = ALL_ARRAYS;
 
 private:
   vtkWallTraction(const vtkWallTraction&) = delete;

@@ -238,3 +238,42 @@ TEST(WallTraction, MissingArrayNamesTheAlternatives)
   EXPECT_TRUE(m.ErrorContains("'pressure'"));
   EXPECT_EQ(vtkPolyData::SafeDownCast(wt->GetOutputDataObject(0))->GetNumberOfCells(), 0);
 }
+
+// FORCES_ONLY makes only what Load Integration needs; totals are identical.
+TEST(WallTraction, ForcesOnlyGivesTheSameTotals)
+{
+  auto sphere = Sphere(1.0, 20, 40);
+  AddCellField(sphere, "p", 1, [](const Vec& x, double* v) { v[0] = 2.0 + x[2]; });
+  AddCellField(sphere, "wss", 3, [](const Vec& x, double* v) {
+    v[0] = x[1];
+    v[1] = -x[0];
+    v[2] = 0.5;
+  });
+  double totals[2][7];
+  for (int mode = 0; mode < 2; ++mode)
+  {
+    auto wt = Traction(sphere);
+    wt->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "p");
+    wt->SetInputArrayToProcess(2, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "wss");
+    wt->SetShearSource(vtkWallTraction::WALL_SHEAR_STRESS);
+    wt->SetPerFaceArrays(mode);
+    auto li = vtkSmartPointer<vtkLoadIntegration>::New();
+    li->SetInputConnection(wt->GetOutputPort());
+    li->SetMomentCentre(0.3, 0, 0);
+    li->Update();
+    vtkDataObject* out = li->GetOutputDataObject(0);
+    totals[mode][0] = Field(out, "Area");
+    for (int k = 0; k < 3; ++k)
+    {
+      totals[mode][1 + k] = Field(out, "Force", k);
+      totals[mode][4 + k] = Field(out, "Moment", k);
+    }
+    auto* cd = vtkPolyData::SafeDownCast(wt->GetOutputDataObject(0))->GetCellData();
+    EXPECT_EQ(cd->GetArray("Traction") != nullptr, mode == vtkWallTraction::ALL_ARRAYS);
+    EXPECT_NE(cd->GetArray("Pressure Force"), nullptr);
+  }
+  for (int k = 0; k < 7; ++k)
+  {
+    EXPECT_EQ(totals[0][k], totals[1][k]) << k;
+  }
+}

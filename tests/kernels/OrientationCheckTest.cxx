@@ -25,8 +25,15 @@ OrientationReport Check(const Faces& faces)
     ids = faces[f].data();
     return static_cast<int>(faces[f].size());
   };
-  auto sorter = [](auto b, auto e) { std::sort(b, e); };
-  return CheckOrientation<std::int64_t>(static_cast<std::int64_t>(faces.size()), corners, sorter);
+  std::int64_t numPoints = 0;
+  for (const auto& face : faces)
+  {
+    for (auto id : face)
+    {
+      numPoints = std::max(numPoints, id + 1);
+    }
+  }
+  return CheckOrientation<std::int64_t>(static_cast<std::int64_t>(faces.size()), numPoints, corners);
 }
 }
 

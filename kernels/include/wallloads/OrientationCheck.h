@@ -32,27 +32,6 @@ struct OrientationReport
 
 namespace detail
 {
-struct HalfEdge
-{
-  std::uint64_t Lo;
-  std::uint64_t Hi;
-  std::int64_t Face;
-  bool Forward;
-  bool SameEdge(const HalfEdge& o) const { return this->Lo == o.Lo && this->Hi == o.Hi; }
-  bool operator<(const HalfEdge& o) const
-  {
-    if (this->Lo != o.Lo)
-    {
-      return this->Lo < o.Lo;
-    }
-    if (this->Hi != o.Hi)
-    {
-      return this->Hi < o.Hi;
-    }
-    return this->Face < o.Face;
-  }
-};
-
 struct ParityUnionFind
 {
   std::vector<std::int64_t> Parent;
@@ -110,20 +89,26 @@ struct ParityUnionFind
 } // namespace detail
 
 /**
- * Check faces 0..numFaces-1. `corners(f, ids, buffer, reversed)` returns the
- * number of corner ids of face f and points `ids` at them (0: face not
- * checked); `buffer` has room for 4 ids for callers that must reorder
- * corners; setting `reversed` makes the face count as traversed backwards
- * (a face whose orientation is decided elsewhere, e.g. by a normal array).
- * `sorter(begin, end)` sorts the half-edges (pass a parallel sort to thread it).
+ * Check faces 0..numFaces-1 whose corner ids are below numPoints.
+ * `corners(f, ids, buffer, reversed)` returns the number of corner ids of
+ * face f and points `ids` at them (0: face not checked); `buffer` has room
+ * for 4 ids for callers that must reorder corners; setting `reversed` makes
+ * the face count as traversed backwards (a face whose orientation is decided
+ * elsewhere, e.g. by a normal array).
+ *
+ * Cost O(faces x corners x faces-per-point): the faces around each point are
+ * gathered once (counting sort), and each edge's other users are found by
+ * scanning the faces around its less shared endpoint. Memory: one id per corner and
+ * one per point, plus the union-find.
  */
-template <typename I, typename Corners, typename Sorter>
-OrientationReport CheckOrientation(std::int64_t numFaces, Corners corners, Sorter sorter)
+template <typename I, typename Corners>
+OrientationReport CheckOrientation(std::int64_t numFaces, std::int64_t numPoints, Corners corners)
 {
   OrientationReport report;
-  std::vector<detail::HalfEdge> edges;
-  edges.reserve(static_cast<std::size_t>(numFaces) * 4);
+  // Faces around each point, as compressed rows.
+  std::vector<std::int64_t> start(static_cast<std::size_t>(numPoints) + 1, 0);
   std::vector<std::uint8_t> used(static_cast<std::size_t>(numFaces), 0);
+  std::vector<std::uint8_t> flipped(static_cast<std::size_t>(numFaces), 0);
   for (std::int64_t f = 0; f < numFaces; ++f)
   {
     I buffer[4];
@@ -135,50 +120,136 @@ OrientationReport CheckOrientation(std::int64_t numFaces, Corners corners, Sorte
       continue;
     }
     used[f] = 1;
+    flipped[f] = reversed ? 1 : 0;
     for (int k = 0; k < n; ++k)
     {
-      const std::uint64_t a = static_cast<std::uint64_t>(ids[k]);
-      const std::uint64_t b = static_cast<std::uint64_t>(ids[(k + 1) % n]);
+      ++start[static_cast<std::size_t>(ids[k]) + 1];
+    }
+  }
+  for (std::int64_t p = 0; p < numPoints; ++p)
+  {
+    start[p + 1] += start[p];
+  }
+  std::vector<std::int64_t> around(static_cast<std::size_t>(start[numPoints]));
+  {
+    std::vector<std::int64_t> fill(start.begin(), start.end() - 1);
+    for (std::int64_t f = 0; f < numFaces; ++f)
+    {
+      if (!used[f])
+      {
+        continue;
+      }
+      I buffer[4];
+      const I* ids = nullptr;
+      bool reversed = false;
+      const int n = corners(f, ids, buffer, reversed);
+      for (int k = 0; k < n; ++k)
+      {
+        around[fill[ids[k]]++] = f;
+      }
+    }
+  }
+
+  // Direction in which face g traverses the edge {a, b}: +1 a->b, -1 b->a, 0 absent.
+  auto direction = [&](std::int64_t g, I a, I b) -> int {
+    I buffer[4];
+    const I* ids = nullptr;
+    bool reversed = false;
+    const int n = corners(g, ids, buffer, reversed);
+    for (int k = 0; k < n; ++k)
+    {
+      const I u = ids[k];
+      const I v = ids[(k + 1) % n];
+      if (u == a && v == b)
+      {
+        return reversed ? -1 : 1;
+      }
+      if (u == b && v == a)
+      {
+        return reversed ? 1 : -1;
+      }
+    }
+    return 0;
+  };
+
+  detail::ParityUnionFind sets(numFaces);
+  for (std::int64_t f = 0; f < numFaces; ++f)
+  {
+    if (!used[f])
+    {
+      continue;
+    }
+    I buffer[4];
+    const I* ids = nullptr;
+    bool reversed = false;
+    const int n = corners(f, ids, buffer, reversed);
+    // Copy: `direction` below reuses the caller's buffer.
+    I own[4];
+    const I* mine = ids;
+    if (ids == buffer)
+    {
+      for (int k = 0; k < n; ++k)
+      {
+        own[k] = buffer[k];
+      }
+      mine = own;
+    }
+    for (int k = 0; k < n; ++k)
+    {
+      const I a = mine[k];
+      const I b = mine[(k + 1) % n];
       if (a == b)
       {
         continue;
       }
-      const bool forward = (a < b) != reversed;
-      edges.push_back({ a < b ? a : b, a < b ? b : a, f, forward });
-    }
-  }
-  sorter(edges.begin(), edges.end());
-
-  detail::ParityUnionFind sets(numFaces);
-  for (std::size_t i = 0; i < edges.size();)
-  {
-    std::size_t j = i + 1;
-    while (j < edges.size() && edges[j].SameEdge(edges[i]))
-    {
-      ++j;
-    }
-    const std::size_t users = j - i;
-    if (users == 1)
-    {
-      ++report.BoundaryEdges;
-    }
-    else if (users == 2)
-    {
-      // Same traversal direction means opposite orientation.
-      const std::uint8_t relation = edges[i].Forward == edges[i + 1].Forward ? 1 : 0;
-      if (edges[i].Face != edges[i + 1].Face &&
-        !sets.Join(edges[i].Face, edges[i + 1].Face, relation))
+      const int fdir = reversed ? -1 : 1;
+      int users = 1;
+      bool smallest = true;
+      std::int64_t other = -1;
+      int odir = 0;
+      // Scan the faces around the endpoint with fewer of them (a pole of a
+      // latitude-longitude sphere has thousands; its neighbours have four).
+      const I pivot = (start[a + 1] - start[a]) <= (start[b + 1] - start[b]) ? a : b;
+      for (std::int64_t j = start[pivot]; j < start[pivot + 1]; ++j)
       {
-        ++report.Conflicts;
+        const std::int64_t g = around[j];
+        if (g == f || (j > start[pivot] && around[j - 1] == g))
+        {
+          continue;
+        }
+        const int d = direction(g, a, b);
+        if (d == 0)
+        {
+          continue;
+        }
+        ++users;
+        smallest = smallest && f < g;
+        other = g;
+        odir = d;
+      }
+      if (!smallest)
+      {
+        continue; // the edge is handled from its smallest user
+      }
+      if (users == 1)
+      {
+        ++report.BoundaryEdges;
+      }
+      else if (users == 2)
+      {
+        // Traversed the same way: opposite orientation.
+        const std::uint8_t relation = odir == fdir ? 1 : 0;
+        if (!sets.Join(f, other, relation))
+        {
+          ++report.Conflicts;
+        }
+      }
+      else
+      {
+        ++report.NonManifoldEdges;
       }
     }
-    else
-    {
-      ++report.NonManifoldEdges;
-    }
-    i = j;
   }
-
   // Count each patch's faces by orientation relative to its root.
   std::vector<std::int64_t> count0(static_cast<std::size_t>(numFaces), 0);
   std::vector<std::int64_t> count1(static_cast<std::size_t>(numFaces), 0);

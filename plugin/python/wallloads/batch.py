@@ -45,8 +45,13 @@ def _plugin_path():
                        "or PV_PLUGIN_PATH to its folder")
 
 
-def load_plugin():
-    """Load the plugin (once) and return paraview.simple with the filters in it."""
+def load_plugin(threads=True):
+    """Load the plugin (once) and return paraview.simple with the filters in it.
+
+    With threads=True (default) the per-face loops run on the STDThread SMP
+    backend, unless VTK_SMP_BACKEND_IN_USE already chose one."""
+    if threads and not os.environ.get("VTK_SMP_BACKEND_IN_USE"):
+        use_threads("STDThread")
     from paraview import simple
     if not hasattr(simple, "WallTraction"):
         simple.LoadPlugin(_plugin_path(), remote=False, ns=vars(simple))

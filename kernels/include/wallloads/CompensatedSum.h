@@ -1,12 +1,16 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #pragma once
 /**
- * Neumaier's compensated summation (Neumaier 1974, ZAMM 54:39-51).
+ * Compensated summation: every addition's rounding error is recovered
+ * exactly with Knuth's branch-free TwoSum (Knuth, TAOCP vol. 2, §4.2.2) and
+ * accumulated in a carry, as in Neumaier's improved Kahan-Babuska sum
+ * (Neumaier 1974, ZAMM 54:39-51).
  *
  * Totals over millions of faces are summed per thread and merged; plain
  * summation would make the result depend on the thread count at the 1e-13
  * level. The running compensation keeps the error independent of the number
  * of terms, so sequential, threaded and MPI totals agree to round-off.
+ * TwoSum has no data-dependent branch, which keeps the face loops fast.
  */
 #include <cmath>
 #include <cstddef>
@@ -23,14 +27,8 @@ struct CompensatedSum
   void Add(T value)
   {
     const T t = this->Sum + value;
-    if (std::abs(this->Sum) >= std::abs(value))
-    {
-      this->Carry += (this->Sum - t) + value;
-    }
-    else
-    {
-      this->Carry += (value - t) + this->Sum;
-    }
+    const T v = t - this->Sum;
+    this->Carry += (this->Sum - (t - v)) + (value - v);
     this->Sum = t;
   }
 

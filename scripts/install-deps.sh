@@ -6,7 +6,7 @@ PKGS=(
   cmake g++ make
   paraview paraview-dev python3-paraview
   libdouble-conversion-dev libopenmpi-dev openmpi-bin python3-dev python3-numpy
-  libeigen3-dev libgtest-dev
+  libeigen3-dev libgtest-dev libexpat1-dev
   qtbase5-dev qttools5-dev qtxmlpatterns5-dev-tools
   xvfb xauth
 )

@@ -1,0 +1,180 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#pragma once
+/**
+ * Least-squares gradient of a vector field at a cell centre.
+ *
+ * With dx_k = x_k - x_0 and du_k = u_k - u_0 for the neighbours k, the
+ * gradient G (row-major, G[3i+j] = du_i/dx_j) minimises
+ *   sum_k w_k |du_k - G dx_k|^2,
+ * i.e. each row g_i solves the 3x3 normal equations
+ *   A g_i = b_i,   A = sum_k w_k dx_k dx_k^T,   b_i = sum_k w_k (du_k)_i dx_k
+ * (the weighted least-squares reconstruction of cell-centred finite-volume
+ * schemes, e.g. Blazek, Computational Fluid Dynamics: Principles and
+ * Applications, 2001, ch. 5; chapter recalled from memory).
+ * A wall face can add one more row: the wall velocity u_W at the face
+ * centroid x_f, with its own weight.
+ *
+ * Accuracy: exact for linear fields. On a point-symmetric stencil (neighbours
+ * in pairs x_0 +- r with equal weights) the quadratic terms cancel, so the
+ * gradient is also exact for quadratics and its error is O(h^2); on a
+ * one-sided stencil (a wall cell with its wall row) it is O(h).
+ *
+ * One Cholesky factorisation of A serves the three components. A is first
+ * scaled to unit diagonal (Jacobi scaling), which leaves the solution
+ * unchanged and takes out the anisotropy of axis-aligned stretched cells.
+ * Conditioning: the determinant of the scaled matrix, det(A)/(A_11 A_22 A_33)
+ * (its trace is 3, so this is also det/(tr/3)^3), lies in [0, 1] by
+ * Hadamard's inequality: 1 when the directions are orthogonal, 0 when the
+ * neighbours span fewer than three directions. Below the threshold the status
+ * is Degenerate. For a stencil stretched by an aspect ratio AR along a
+ * direction oblique to the axes the scaled determinant is about 4/AR^2, so
+ * the default 1e-12 (double) accepts aspect ratios up to about 1e6.
+ */
+#include "wallloads/Vector3.h"
+
+#include <cmath>
+#include <cstdint>
+#include <limits>
+
+namespace wallloads
+{
+
+enum class GradientStatus : std::uint8_t
+{
+  Ok = 0,
+  Degenerate, ///< fewer than three independent directions (scaled determinant below threshold)
+  BadInput    ///< negative number of neighbours or weight, or a value not finite
+};
+
+/// Optional extra row of the fit: the wall velocity at the face centroid.
+template <typename T>
+struct WallConstraint
+{
+  const T* Point = nullptr; ///< face centroid x_f (3)
+  const T* Value = nullptr; ///< wall velocity u_W (3)
+  T Weight = T(1);
+};
+
+/// Default threshold on the scaled determinant: 1e-12, or 64 ulps for types
+/// coarser than double (coplanar stencils give a few ulps from round-off).
+template <typename T>
+constexpr T GradientConditionThreshold()
+{
+  return T(64) * std::numeric_limits<T>::epsilon() > T(1e-12)
+    ? T(64) * std::numeric_limits<T>::epsilon()
+    : T(1e-12);
+}
+
+/**
+ * Gradient at x0 (value u0) from `numNeighbours` neighbours at `xk[3k..3k+2]`
+ * with values `uk[3k..3k+2]` and weights `wk[k]` (nullptr: all 1), plus the
+ * optional wall row. Writes G[3i+j] = du_i/dx_j; NaN unless Ok.
+ */
+template <typename T>
+GradientStatus LeastSquaresGradient(const T x0[3], const T u0[3], const T* xk, const T* uk,
+  const T* wk, int numNeighbours, T G[9], const WallConstraint<T>* wall = nullptr,
+  T threshold = GradientConditionThreshold<T>())
+{
+  const T nan = std::numeric_limits<T>::quiet_NaN();
+  auto fail = [&](GradientStatus status) {
+    for (int i = 0; i < 9; ++i)
+    {
+      G[i] = nan;
+    }
+    return status;
+  };
+  if (numNeighbours < 0 || !AllFinite(x0, 3) || !AllFinite(u0, 3))
+  {
+    return fail(GradientStatus::BadInput);
+  }
+  // A (symmetric: a00 a01 a02 a11 a12 a22) and B[i][j] = sum w du_i dx_j.
+  T a00 = 0, a01 = 0, a02 = 0, a11 = 0, a12 = 0, a22 = 0;
+  T B[3][3] = { { 0, 0, 0 }, { 0, 0, 0 }, { 0, 0, 0 } };
+  int rows = 0;
+  auto addRow = [&](const T* x, const T* u, T w) {
+    if (!(w >= T(0)) || !std::isfinite(w) || !AllFinite(x, 3) || !AllFinite(u, 3))
+    {
+      return false;
+    }
+    // Differences first: stencils far from the origin keep their digits.
+    const T dx[3] = { x[0] - x0[0], x[1] - x0[1], x[2] - x0[2] };
+    const T du[3] = { u[0] - u0[0], u[1] - u0[1], u[2] - u0[2] };
+    const T wx[3] = { w * dx[0], w * dx[1], w * dx[2] };
+    a00 += wx[0] * dx[0];
+    a01 += wx[0] * dx[1];
+    a02 += wx[0] * dx[2];
+    a11 += wx[1] * dx[1];
+    a12 += wx[1] * dx[2];
+    a22 += wx[2] * dx[2];
+    for (int i = 0; i < 3; ++i)
+    {
+      B[i][0] += du[i] * wx[0];
+      B[i][1] += du[i] * wx[1];
+      B[i][2] += du[i] * wx[2];
+    }
+    rows += w > T(0) ? 1 : 0;
+    return true;
+  };
+  for (int k = 0; k < numNeighbours; ++k)
+  {
+    if (!addRow(xk + 3 * k, uk + 3 * k, wk ? wk[k] : T(1)))
+    {
+      return fail(GradientStatus::BadInput);
+    }
+  }
+  if (wall && wall->Point && wall->Value)
+  {
+    if (!addRow(wall->Point, wall->Value, wall->Weight))
+    {
+      return fail(GradientStatus::BadInput);
+    }
+  }
+  if (rows < 3 || !(a00 > T(0)) || !(a11 > T(0)) || !(a22 > T(0)))
+  {
+    return fail(GradientStatus::Degenerate);
+  }
+  if (!std::isfinite(a00) || !std::isfinite(a11) || !std::isfinite(a22))
+  {
+    return fail(GradientStatus::BadInput);
+  }
+  // Jacobi scaling: S = D^-1/2 A D^-1/2 has unit diagonal.
+  const T s[3] = { T(1) / std::sqrt(a00), T(1) / std::sqrt(a11), T(1) / std::sqrt(a22) };
+  const T s01 = a01 * s[0] * s[1];
+  const T s02 = a02 * s[0] * s[2];
+  const T s12 = a12 * s[1] * s[2];
+  // Cholesky S = L L^T; det(S) = (l00 l11 l22)^2 with l00 = 1.
+  const T l10 = s01;
+  const T l20 = s02;
+  const T p1 = T(1) - l10 * l10;
+  if (!(p1 > T(0)))
+  {
+    return fail(GradientStatus::Degenerate);
+  }
+  const T l11 = std::sqrt(p1);
+  const T l21 = (s12 - l20 * l10) / l11;
+  const T p2 = T(1) - l20 * l20 - l21 * l21;
+  if (!(p1 * p2 > threshold))
+  {
+    return fail(GradientStatus::Degenerate);
+  }
+  const T l22 = std::sqrt(p2);
+  for (int i = 0; i < 3; ++i)
+  {
+    // Solve S y = D^-1/2 b_i, then g_i = D^-1/2 y.
+    const T r0 = B[i][0] * s[0];
+    const T r1 = B[i][1] * s[1];
+    const T r2 = B[i][2] * s[2];
+    const T z0 = r0;
+    const T z1 = (r1 - l10 * z0) / l11;
+    const T z2 = (r2 - l20 * z0 - l21 * z1) / l22;
+    const T y2 = z2 / l22;
+    const T y1 = (z1 - l21 * y2) / l11;
+    const T y0 = z0 - l10 * y1 - l20 * y2;
+    G[3 * i + 0] = y0 * s[0];
+    G[3 * i + 1] = y1 * s[1];
+    G[3 * i + 2] = y2 * s[2];
+  }
+  return AllFinite(G, 9) ? GradientStatus::Ok : fail(GradientStatus::BadInput);
+}
+
+} // namespace wallloads

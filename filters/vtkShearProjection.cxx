@@ -1,0 +1,883 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#include "vtkShearProjection.h"
+
+#include "WallLoadsPipeline.h"
+#include "wallloads/FaceGeometry.h"
+#include "wallloads/LeastSquaresGradient.h"
+#include "wallloads/NearWallShear.h"
+#include "wallloads/Traction.h"
+#include "wallloads/WallLaw.h"
+
+#include "vtkCell.h"
+#include "vtkCellData.h"
+#include "vtkCellTypes.h"
+#include "vtkCompositeDataSet.h"
+#include "vtkDataObjectTree.h"
+#include "vtkDataObjectTreeIterator.h"
+#include "vtkDataSetSurfaceFilter.h"
+#include "vtkDoubleArray.h"
+#include "vtkGenericCell.h"
+#include "vtkIdList.h"
+#include "vtkIdTypeArray.h"
+#include "vtkInformation.h"
+#include "vtkInformationVector.h"
+#include "vtkIntArray.h"
+#include "vtkMultiBlockDataSet.h"
+#include "vtkObjectFactory.h"
+#include "vtkPointData.h"
+#include "vtkPointSet.h"
+#include "vtkPoints.h"
+#include "vtkPolyData.h"
+#include "vtkSmartPointer.h"
+#include "vtkStaticPointLocator.h"
+#include "vtkUnstructuredGrid.h"
+
+#include <cmath>
+#include <limits>
+#include <sstream>
+#include <vector>
+
+vtkStandardNewMacro(vtkShearProjection);
+
+namespace
+{
+using namespace wallloads;
+const double NaN = std::numeric_limits<double>::quiet_NaN();
+
+/// The boundary of one volume block, indexed for matching.
+struct Boundary
+{
+  // Identity of the mesh the entry was built from.
+  const void* Points = nullptr;
+  vtkMTimeType PointsTime = 0;
+  const void* Cells = nullptr;
+  vtkMTimeType CellsTime = 0;
+  vtkIdType NumPoints = -1, NumCells = -1;
+
+  vtkSmartPointer<vtkPolyData> Faces;          ///< boundary faces, with vtkOriginalCellIds
+  vtkSmartPointer<vtkStaticPointLocator> Near; ///< on the face centroids
+  std::vector<vtkIdType> Cell;                 ///< adjacent cell of each boundary face
+  vtkSmartPointer<vtkDataSet> Mesh;            ///< private copy for neighbour queries
+
+  bool Matches(vtkDataSet* ds) const
+  {
+    auto* ps = vtkPointSet::SafeDownCast(ds);
+    auto* ug = vtkUnstructuredGrid::SafeDownCast(ds);
+    const void* pts = ps && ps->GetPoints() ? static_cast<const void*>(ps->GetPoints()->GetData())
+                                            : static_cast<const void*>(ds);
+    const vtkMTimeType pt = ps && ps->GetPoints() ? ps->GetPoints()->GetMTime() : ds->GetMTime();
+    const void* cells = ug ? static_cast<const void*>(ug->GetCells()) : static_cast<const void*>(ds);
+    const vtkMTimeType ct = ug ? ug->GetCells()->GetMTime() : ds->GetMTime();
+    return pts == this->Points && pt == this->PointsTime && cells == this->Cells &&
+      ct == this->CellsTime && ds->GetNumberOfPoints() == this->NumPoints &&
+      ds->GetNumberOfCells() == this->NumCells;
+  }
+
+  void Build(vtkDataSet* ds)
+  {
+    auto* ps = vtkPointSet::SafeDownCast(ds);
+    auto* ug = vtkUnstructuredGrid::SafeDownCast(ds);
+    this->Points = ps && ps->GetPoints() ? static_cast<const void*>(ps->GetPoints()->GetData())
+                                         : static_cast<const void*>(ds);
+    this->PointsTime = ps && ps->GetPoints() ? ps->GetPoints()->GetMTime() : ds->GetMTime();
+    this->Cells = ug ? static_cast<const void*>(ug->GetCells()) : static_cast<const void*>(ds);
+    this->CellsTime = ug ? ug->GetCells()->GetMTime() : ds->GetMTime();
+    this->NumPoints = ds->GetNumberOfPoints();
+    this->NumCells = ds->GetNumberOfCells();
+
+    // Geometry only: the extraction must not carry the volume's arrays.
+    this->Mesh.TakeReference(ds->NewInstance());
+    this->Mesh->CopyStructure(ds);
+    auto surface = vtkSmartPointer<vtkDataSetSurfaceFilter>::New();
+    surface->SetInputData(this->Mesh);
+    surface->PassThroughCellIdsOn();
+    surface->SetOriginalCellIdsName("vtkOriginalCellIds");
+    surface->Update();
+    this->Faces = surface->GetOutput();
+    vtkDataArray* ids = this->Faces->GetCellData()->GetArray("vtkOriginalCellIds");
+    const vtkIdType n = this->Faces->GetNumberOfCells();
+    this->Cell.assign(static_cast<std::size_t>(n), -1);
+    auto centroids = vtkSmartPointer<vtkPoints>::New();
+    centroids->SetDataTypeToDouble();
+    centroids->SetNumberOfPoints(n);
+    auto list = vtkSmartPointer<vtkIdList>::New();
+    std::vector<double> xyz;
+    for (vtkIdType f = 0; f < n; ++f)
+    {
+      this->Cell[f] = ids ? static_cast<vtkIdType>(ids->GetComponent(f, 0)) : -1;
+      this->Faces->GetCellPoints(f, list);
+      xyz.resize(3 * list->GetNumberOfIds());
+      std::vector<vtkIdType> local(list->GetNumberOfIds());
+      for (vtkIdType k = 0; k < list->GetNumberOfIds(); ++k)
+      {
+        this->Faces->GetPoint(list->GetId(k), &xyz[3 * k]);
+        local[k] = k;
+      }
+      FaceFrame<double> frame;
+      if (ComputeFaceFrame<double>(xyz.data(), local.data(), static_cast<int>(local.size()), frame) ==
+        FaceStatus::Ok)
+      {
+        centroids->SetPoint(f, frame.Centroid);
+      }
+      else
+      {
+        centroids->SetPoint(f, NaN, NaN, NaN);
+      }
+    }
+    auto cloud = vtkSmartPointer<vtkPolyData>::New();
+    cloud->SetPoints(centroids);
+    this->Near = vtkSmartPointer<vtkStaticPointLocator>::New();
+    this->Near->SetDataSet(cloud);
+    this->Near->BuildLocator();
+    if (auto* grid = vtkUnstructuredGrid::SafeDownCast(this->Mesh))
+    {
+      grid->BuildLinks(); // once, for the face neighbours of wall cells
+    }
+  }
+};
+} // namespace
+
+struct vtkShearProjection::AdjacencyCache
+{
+  std::vector<Boundary> Blocks;
+};
+
+namespace
+{
+struct VolumeBlock
+{
+  vtkDataSet* Data = nullptr;
+  std::string Name;
+  Boundary* Index = nullptr;
+  ArrayView Velocity, Gradient, Viscosity, TurbulentViscosity, Density;
+};
+
+struct Settings
+{
+  ArraySelection Velocity, WallVelocity, Gradient, Viscosity, TurbulentViscosity, Density;
+  int Method = 0;
+  double ViscosityValue = 1.8e-5;
+  bool Kinematic = false;
+  double DensityValue = 1;
+  double Kappa = 0.41, B = 5.0;
+};
+
+struct Counts
+{
+  double Faces = 0, Unmatched = 0, OffWall = 0, FellBack = 0, Failed = 0;
+};
+
+bool Selection(vtkAlgorithm* alg, int index, ArraySelection& sel)
+{
+  vtkInformation* info = alg->GetInputArrayInformation(index);
+  sel = ArraySelection();
+  if (!info || !info->Has(vtkDataObject::FIELD_NAME()) ||
+    IsUnsetArrayName(info->Get(vtkDataObject::FIELD_NAME())))
+  {
+    return false;
+  }
+  sel.Name = info->Get(vtkDataObject::FIELD_NAME());
+  sel.OnPoints = info->Has(vtkDataObject::FIELD_ASSOCIATION()) &&
+    info->Get(vtkDataObject::FIELD_ASSOCIATION()) == vtkDataObject::FIELD_ASSOCIATION_POINTS;
+  return true;
+}
+
+bool IsVolume(vtkDataSet* ds)
+{
+  for (vtkIdType c = 0; ds && c < ds->GetNumberOfCells(); ++c)
+  {
+    if (vtkCellTypes::GetDimension(static_cast<unsigned char>(ds->GetCellType(c))) == 3)
+    {
+      return true;
+    }
+  }
+  return false;
+}
+
+void ListDataSets(vtkDataObject* obj, std::vector<std::pair<vtkDataSet*, std::string>>& out)
+{
+  if (auto* ds = vtkDataSet::SafeDownCast(obj))
+  {
+    out.emplace_back(ds, std::string());
+    return;
+  }
+  auto* tree = vtkDataObjectTree::SafeDownCast(obj);
+  if (!tree)
+  {
+    return;
+  }
+  vtkSmartPointer<vtkDataObjectTreeIterator> it;
+  it.TakeReference(tree->NewTreeIterator());
+  it->VisitOnlyLeavesOn();
+  it->TraverseSubTreeOn();
+  for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
+  {
+    std::string name;
+    if (it->HasCurrentMetaData() && it->GetCurrentMetaData()->Has(vtkCompositeDataSet::NAME()))
+    {
+      name = it->GetCurrentMetaData()->Get(vtkCompositeDataSet::NAME());
+    }
+    if (name.empty())
+    {
+      name = "#" + std::to_string(it->GetCurrentFlatIndex());
+    }
+    if (auto* ds = vtkDataSet::SafeDownCast(it->GetCurrentDataObject()))
+    {
+      out.emplace_back(ds, name);
+    }
+  }
+}
+
+/// Value of a volume array at a cell: the cell value or the mean over its points.
+void CellValue(const ArrayView& a, vtkIdList* cellPoints, vtkIdType cell, int comps, double* out)
+{
+  for (int k = 0; k < comps; ++k)
+  {
+    if (!a.OnPoints)
+    {
+      out[k] = a.Get(cell, k);
+      continue;
+    }
+    double sum = 0;
+    for (vtkIdType j = 0; j < cellPoints->GetNumberOfIds(); ++j)
+    {
+      sum += a.Get(cellPoints->GetId(j), k);
+    }
+    out[k] = sum / static_cast<double>(cellPoints->GetNumberOfIds());
+  }
+}
+
+void CellCentre(vtkDataSet* ds, vtkIdList* cellPoints, double x[3])
+{
+  x[0] = x[1] = x[2] = 0;
+  for (vtkIdType j = 0; j < cellPoints->GetNumberOfIds(); ++j)
+  {
+    double p[3];
+    ds->GetPoint(cellPoints->GetId(j), p);
+    for (int k = 0; k < 3; ++k)
+    {
+      x[k] += p[k];
+    }
+  }
+  for (int k = 0; k < 3; ++k)
+  {
+    x[k] /= static_cast<double>(cellPoints->GetNumberOfIds());
+  }
+}
+
+/// One wall face: its frame and the adjacent cell (block, id) or none.
+struct WallFace
+{
+  FaceFrame<double> Frame;
+  bool Valid = false;
+  int Block = -1;
+  vtkIdType Cell = -1;
+  double WallVelocity[3] = { 0, 0, 0 };
+};
+
+/// Shear and wall quantities for one face.
+void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, vtkGenericCell* scratch,
+  double out[9], int& regime, Counts& counts)
+{
+  for (int k = 0; k < 9; ++k)
+  {
+    out[k] = NaN;
+  }
+  regime = UnknownRegime;
+  vtkDataSet* mesh = vb.Index->Mesh;
+  auto cellPoints = vtkSmartPointer<vtkIdList>::New();
+  mesh->GetCellPoints(face.Cell, cellPoints);
+  double xP[3], uP[3];
+  CellCentre(mesh, cellPoints, xP);
+  CellValue(vb.Velocity, cellPoints, face.Cell, 3, uP);
+  const double* xf = face.Frame.Centroid;
+  double n[3] = { face.Frame.Normal[0], face.Frame.Normal[1], face.Frame.Normal[2] };
+  const double toP[3] = { xP[0] - xf[0], xP[1] - xf[1], xP[2] - xf[2] };
+  double d = Dot(toP, n);
+  if (d < 0)
+  {
+    for (double& v : n)
+    {
+      v = -v;
+    }
+    d = -d;
+  }
+  if (!(d > 0) || !std::isfinite(d))
+  {
+    ++counts.OffWall;
+    return;
+  }
+  double rho = s.DensityValue;
+  if (vb.Density.Valid())
+  {
+    CellValue(vb.Density, cellPoints, face.Cell, 1, &rho);
+  }
+  double mu = s.ViscosityValue;
+  if (vb.Viscosity.Valid())
+  {
+    CellValue(vb.Viscosity, cellPoints, face.Cell, 1, &mu);
+  }
+  double mut = 0;
+  if (vb.TurbulentViscosity.Valid())
+  {
+    CellValue(vb.TurbulentViscosity, cellPoints, face.Cell, 1, &mut);
+  }
+  const double factor = s.Kinematic ? rho : 1.0;
+  const double muMolecular = factor * mu;
+  const double muEff = factor * (mu + mut);
+  const double nu = muMolecular / rho;
+  const double* uW = face.WallVelocity;
+
+  // Face neighbours of the adjacent cell (gradient and wall fit).
+  std::vector<double> xk, uk;
+  auto gather = [&]() {
+    mesh->GetCell(face.Cell, scratch);
+    auto neighbours = vtkSmartPointer<vtkIdList>::New();
+    auto nbPoints = vtkSmartPointer<vtkIdList>::New();
+    for (int f = 0; f < scratch->GetNumberOfFaces(); ++f)
+    {
+      vtkCell* cf = scratch->GetFace(f);
+      mesh->GetCellNeighbors(face.Cell, cf->GetPointIds(), neighbours);
+      for (vtkIdType j = 0; j < neighbours->GetNumberOfIds(); ++j)
+      {
+        const vtkIdType nb = neighbours->GetId(j);
+        mesh->GetCellPoints(nb, nbPoints);
+        double x[3], u[3];
+        CellCentre(mesh, nbPoints, x);
+        CellValue(vb.Velocity, nbPoints, nb, 3, u);
+        xk.insert(xk.end(), x, x + 3);
+        uk.insert(uk.end(), u, u + 3);
+      }
+    }
+  };
+
+  double tau[3] = { NaN, NaN, NaN };
+  switch (s.Method)
+  {
+    case vtkShearProjection::NEAR_WALL_DIFFERENCE:
+      NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
+      break;
+    case vtkShearProjection::GRADIENT_TENSOR:
+    {
+      double G[9];
+      if (vb.Gradient.Valid())
+      {
+        CellValue(vb.Gradient, cellPoints, face.Cell, 9, G);
+      }
+      else
+      {
+        gather();
+        WallConstraint<double> wall;
+        wall.Point = xf;
+        wall.Value = uW;
+        if (LeastSquaresGradient<double>(xP, uP, xk.data(), uk.data(), nullptr,
+              static_cast<int>(xk.size() / 3), G, &wall) != GradientStatus::Ok)
+        {
+          ++counts.Failed;
+          return;
+        }
+      }
+      GradientWallShear(G, muEff, n, tau);
+      break;
+    }
+    case vtkShearProjection::WALL_FIT:
+    {
+      gather();
+      std::vector<double> ds{ d };
+      std::vector<double> us(uP, uP + 3);
+      for (std::size_t j = 0; j < xk.size() / 3; ++j)
+      {
+        const double off[3] = { xk[3 * j] - xf[0], xk[3 * j + 1] - xf[1], xk[3 * j + 2] - xf[2] };
+        const double dj = Dot(off, n);
+        if (dj > 0)
+        {
+          ds.push_back(dj);
+          us.insert(us.end(), &uk[3 * j], &uk[3 * j] + 3);
+        }
+      }
+      const ShearStatus st = WallFitShear<double>(
+        ds.data(), us.data(), nullptr, static_cast<int>(ds.size()), uW, n, muEff, tau);
+      if (st == ShearStatus::Degenerate || st == ShearStatus::SingleSample)
+      {
+        ++counts.FellBack; // no distinct distances: the near-wall difference
+        NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
+      }
+      break;
+    }
+    case vtkShearProjection::WALL_LAW:
+    {
+      const double du[3] = { uP[0] - uW[0], uP[1] - uW[1], uP[2] - uW[2] };
+      double ut[3];
+      SplitNormalTangential(du, n, ut);
+      const double U = Norm(ut);
+      FrictionVelocityResult<double> r;
+      if (SolveSpaldingFrictionVelocity(U, d, nu, r, s.Kappa, s.B) != WallLawStatus::Ok)
+      {
+        ++counts.Failed;
+        return;
+      }
+      const double scale = U > 0 ? rho * r.FrictionVelocity * r.FrictionVelocity / U : 0.0;
+      for (int k = 0; k < 3; ++k)
+      {
+        tau[k] = scale * ut[k];
+      }
+      break;
+    }
+  }
+  if (!AllFinite(tau, 3))
+  {
+    ++counts.Failed;
+    return;
+  }
+  const double utau = std::sqrt(Norm(tau) / rho);
+  const double yplus = d * utau / nu;
+  for (int k = 0; k < 3; ++k)
+  {
+    out[k] = tau[k];
+    out[3 + k] = n[k];
+  }
+  out[6] = d;
+  out[7] = utau;
+  out[8] = yplus;
+  regime = NearWallRegime(yplus);
+}
+
+template <typename I, typename P>
+void FaceFrames(vtkDataSet* wall, std::vector<WallFace>& faces)
+{
+  FaceTopology<I> topo;
+  MakeFaceTopology<I>(wall, topo);
+  const PointView pv = MakePointView(wall);
+  const P* pts = static_cast<const P*>(pv.Data);
+  faces.assign(static_cast<std::size_t>(wall->GetNumberOfCells()), WallFace());
+  for (vtkIdType c = 0; c < wall->GetNumberOfCells(); ++c)
+  {
+    I buffer[4];
+    const I* ids = nullptr;
+    const int n = topo.Corners(c, ids, buffer);
+    faces[c].Valid = n > 0 && pts && ComputeFaceFrame<double>(pts, ids, n, faces[c].Frame) == FaceStatus::Ok;
+  }
+}
+
+double* NewArray(vtkDataSet* out, const char* name, int comps)
+{
+  auto a = vtkSmartPointer<vtkDoubleArray>::New();
+  a->SetName(name);
+  a->SetNumberOfComponents(comps);
+  a->SetNumberOfTuples(out->GetNumberOfCells());
+  out->GetCellData()->AddArray(a);
+  return a->GetPointer(0);
+}
+} // namespace
+
+//------------------------------------------------------------------------------
+vtkShearProjection::vtkShearProjection()
+  : Cache(new AdjacencyCache)
+{
+  this->SetNumberOfInputPorts(2);
+  for (int i = VELOCITY_ARRAY; i <= DENSITY_ARRAY; ++i)
+  {
+    this->SetInputArrayToProcess(
+      i, i == WALL_VELOCITY_ARRAY ? 1 : 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "");
+  }
+}
+
+vtkShearProjection::~vtkShearProjection() = default;
+
+//------------------------------------------------------------------------------
+int vtkShearProjection::FillInputPortInformation(int port, vtkInformation* info)
+{
+  info->Remove(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE());
+  if (port == 0)
+  {
+    info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkDataSet");
+    info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkDataObjectTree");
+  }
+  else
+  {
+    info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkPolyData");
+    info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkUnstructuredGrid");
+    info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkDataObjectTree");
+    info->Set(vtkAlgorithm::INPUT_IS_OPTIONAL(), 1);
+  }
+  return 1;
+}
+
+//------------------------------------------------------------------------------
+int vtkShearProjection::RequestDataObject(
+  vtkInformation*, vtkInformationVector** inputVector, vtkInformationVector* outputVector)
+{
+  vtkDataObject* volume = vtkDataObject::GetData(inputVector[0], 0);
+  vtkDataObject* walls =
+    inputVector[1]->GetNumberOfInformationObjects() ? vtkDataObject::GetData(inputVector[1], 0) : nullptr;
+  if (!volume)
+  {
+    return 0;
+  }
+  vtkInformation* info = outputVector->GetInformationObject(0);
+  vtkDataObject* current = vtkDataObject::GetData(info);
+  vtkSmartPointer<vtkDataObject> wanted;
+  if (walls)
+  {
+    if (!current || !current->IsA(walls->GetClassName()))
+    {
+      wanted.TakeReference(walls->NewInstance());
+    }
+  }
+  else if (vtkDataObjectTree::SafeDownCast(volume))
+  {
+    if (!vtkMultiBlockDataSet::SafeDownCast(current))
+    {
+      wanted = vtkSmartPointer<vtkMultiBlockDataSet>::New();
+    }
+  }
+  else if (!vtkPolyData::SafeDownCast(current))
+  {
+    wanted = vtkSmartPointer<vtkPolyData>::New();
+  }
+  if (wanted)
+  {
+    info->Set(vtkDataObject::DATA_OBJECT(), wanted);
+  }
+  return 1;
+}
+
+//------------------------------------------------------------------------------
+int vtkShearProjection::RequestData(
+  vtkInformation*, vtkInformationVector** inputVector, vtkInformationVector* outputVector)
+{
+  vtkDataObject* volumeIn = vtkDataObject::GetData(inputVector[0], 0);
+  vtkDataObject* wallsIn =
+    inputVector[1]->GetNumberOfInformationObjects() ? vtkDataObject::GetData(inputVector[1], 0) : nullptr;
+  vtkDataObject* output = vtkDataObject::GetData(outputVector, 0);
+
+  Settings s;
+  Selection(this, VELOCITY_ARRAY, s.Velocity);
+  Selection(this, WALL_VELOCITY_ARRAY, s.WallVelocity);
+  Selection(this, VELOCITY_GRADIENT_ARRAY, s.Gradient);
+  Selection(this, VISCOSITY_ARRAY, s.Viscosity);
+  Selection(this, TURBULENT_VISCOSITY_ARRAY, s.TurbulentViscosity);
+  Selection(this, DENSITY_ARRAY, s.Density);
+  s.Method = this->Method;
+  s.ViscosityValue = this->Viscosity;
+  s.Kinematic = this->ViscosityKind == 1;
+  s.DensityValue = this->Density;
+  s.Kappa = this->WallLawKappa;
+  s.B = this->WallLawB;
+  if (!s.Velocity.Set())
+  {
+    vtkErrorMacro("Shear Projection needs a Velocity array (3 components) on the volume.");
+    return 0;
+  }
+
+  // Volume blocks, their arrays and their (cached) boundaries.
+  std::vector<std::pair<vtkDataSet*, std::string>> all;
+  ListDataSets(volumeIn, all);
+  std::vector<VolumeBlock> volume;
+  std::string error;
+  std::vector<Boundary>& cache = this->Cache->Blocks;
+  std::vector<Boundary> kept;
+  for (auto& entry : all)
+  {
+    if (!IsVolume(entry.first))
+    {
+      continue; // boundary patches of a composite reader, or empty pieces
+    }
+    VolumeBlock vb;
+    vb.Data = entry.first;
+    vb.Name = entry.second;
+    auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
+      if (!sel.Set() || !error.empty())
+      {
+        return;
+      }
+      vtkDataArray* a = FindSelectedArray(vb.Data, sel, comps, role, vb.Name, error);
+      view = MakeArrayView(a, sel.OnPoints);
+    };
+    fetch(s.Velocity, 3, "Velocity", vb.Velocity);
+    fetch(s.Gradient, 9, "Velocity gradient", vb.Gradient);
+    fetch(s.Viscosity, 1, "Viscosity", vb.Viscosity);
+    fetch(s.TurbulentViscosity, 1, "Turbulent viscosity", vb.TurbulentViscosity);
+    fetch(s.Density, 1, "Density", vb.Density);
+    volume.push_back(vb);
+  }
+  // Reuse a cached boundary for every block whose mesh is unchanged.
+  for (VolumeBlock& vb : volume)
+  {
+    bool found = false;
+    for (Boundary& b : cache)
+    {
+      if (b.Matches(vb.Data))
+      {
+        kept.push_back(b);
+        found = true;
+        break;
+      }
+    }
+    if (!found)
+    {
+      kept.emplace_back();
+      kept.back().Build(vb.Data);
+      ++this->NumberOfAdjacencyBuilds;
+    }
+  }
+  cache = kept;
+  for (std::size_t i = 0; i < volume.size(); ++i)
+  {
+    volume[i].Index = &cache[i];
+  }
+
+  double failed[1] = { error.empty() ? 0.0 : 1.0 };
+  GlobalMax(failed, 1);
+  if (failed[0] > 0)
+  {
+    if (!error.empty())
+    {
+      vtkErrorMacro(<< error);
+    }
+    else if (ProcessRank() == 0)
+    {
+      vtkErrorMacro("Bad input on another rank (see its message); no output.");
+    }
+    return 0;
+  }
+
+  // The wall datasets of the output, each with its faces matched to cells.
+  struct WallBlock
+  {
+    vtkSmartPointer<vtkDataSet> Out;
+    std::string Name;
+    std::vector<WallFace> Faces;
+  };
+  std::vector<WallBlock> walls;
+  if (wallsIn)
+  {
+    if (auto* tree = vtkDataObjectTree::SafeDownCast(wallsIn))
+    {
+      auto* outTree = vtkDataObjectTree::SafeDownCast(output);
+      outTree->CopyStructure(tree);
+      vtkSmartPointer<vtkDataObjectTreeIterator> it;
+      it.TakeReference(tree->NewTreeIterator());
+      it->VisitOnlyLeavesOn();
+      it->TraverseSubTreeOn();
+      for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
+      {
+        auto* leaf = vtkDataSet::SafeDownCast(it->GetCurrentDataObject());
+        if (!leaf)
+        {
+          continue;
+        }
+        WallBlock wb;
+        wb.Out.TakeReference(leaf->NewInstance());
+        wb.Out->ShallowCopy(leaf);
+        outTree->SetDataSet(it, wb.Out);
+        wb.Name = it->HasCurrentMetaData() && it->GetCurrentMetaData()->Has(vtkCompositeDataSet::NAME())
+          ? it->GetCurrentMetaData()->Get(vtkCompositeDataSet::NAME())
+          : "#" + std::to_string(it->GetCurrentFlatIndex());
+        walls.push_back(wb);
+      }
+    }
+    else
+    {
+      WallBlock wb;
+      wb.Out = vtkDataSet::SafeDownCast(output);
+      wb.Out->ShallowCopy(wallsIn);
+      wb.Name = "walls";
+      walls.push_back(wb);
+    }
+  }
+  else
+  {
+    auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
+    for (std::size_t i = 0; i < volume.size(); ++i)
+    {
+      WallBlock wb;
+      auto pd = vtkSmartPointer<vtkPolyData>::New();
+      pd->ShallowCopy(volume[i].Index->Faces);
+      pd->GetCellData()->RemoveArray("vtkOriginalCellIds");
+      wb.Out = pd;
+      wb.Name = volume[i].Name.empty() ? std::string("boundary") : volume[i].Name + " boundary";
+      if (mb)
+      {
+        mb->SetBlock(static_cast<unsigned int>(i), pd);
+        mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
+      }
+      else
+      {
+        vtkPolyData::SafeDownCast(output)->ShallowCopy(pd);
+        wb.Out = vtkDataSet::SafeDownCast(output);
+      }
+      walls.push_back(wb);
+    }
+  }
+
+  Counts counts;
+  std::ostringstream unmatchedReport;
+  auto scratch = vtkSmartPointer<vtkGenericCell>::New();
+  for (std::size_t w = 0; w < walls.size(); ++w)
+  {
+    WallBlock& wb = walls[w];
+    vtkDataSet* out = wb.Out;
+    if (FacesUse64BitIds(out))
+    {
+      MakePointView(out).IsFloat ? FaceFrames<vtkTypeInt64, float>(out, wb.Faces)
+                                 : FaceFrames<vtkTypeInt64, double>(out, wb.Faces);
+    }
+    else
+    {
+      MakePointView(out).IsFloat ? FaceFrames<vtkTypeInt32, float>(out, wb.Faces)
+                                 : FaceFrames<vtkTypeInt32, double>(out, wb.Faces);
+    }
+    // Wall velocity (optional, on the walls).
+    ArrayView wallVelocity;
+    if (s.WallVelocity.Set() && out->GetNumberOfCells() > 0)
+    {
+      std::string werror;
+      vtkDataArray* a = FindSelectedArray(out, s.WallVelocity, 3, "Wall velocity", wb.Name, werror);
+      if (!a)
+      {
+        vtkErrorMacro(<< werror);
+        return 0;
+      }
+      wallVelocity = MakeArrayView(a, s.WallVelocity.OnPoints);
+    }
+    // Match faces to cells: directly for extracted boundaries, by centroid otherwise.
+    double unmatched = 0;
+    auto corners = vtkSmartPointer<vtkIdList>::New();
+    for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
+    {
+      WallFace& face = wb.Faces[f];
+      if (!face.Valid)
+      {
+        ++unmatched;
+        continue;
+      }
+      if (!wallsIn)
+      {
+        face.Block = static_cast<int>(w);
+        face.Cell = volume[w].Index->Cell[f];
+      }
+      else
+      {
+        double best = VTK_DOUBLE_MAX;
+        const double tol = 1e-4 * std::sqrt(face.Frame.Area);
+        for (std::size_t v = 0; v < volume.size(); ++v)
+        {
+          double d2;
+          const vtkIdType id = volume[v].Index->Near->FindClosestPointWithinRadius(
+            tol, face.Frame.Centroid, d2);
+          if (id >= 0 && d2 < best)
+          {
+            best = d2;
+            face.Block = static_cast<int>(v);
+            face.Cell = volume[v].Index->Cell[id];
+          }
+        }
+      }
+      if (face.Cell < 0)
+      {
+        ++unmatched;
+        continue;
+      }
+      if (wallVelocity.Valid())
+      {
+        out->GetCellPoints(f, corners);
+        for (int k = 0; k < 3; ++k)
+        {
+          if (!wallVelocity.OnPoints)
+          {
+            face.WallVelocity[k] = wallVelocity.Get(f, k);
+            continue;
+          }
+          double sum = 0;
+          for (vtkIdType j = 0; j < corners->GetNumberOfIds(); ++j)
+          {
+            sum += wallVelocity.Get(corners->GetId(j), k);
+          }
+          face.WallVelocity[k] = sum / static_cast<double>(corners->GetNumberOfIds());
+        }
+      }
+    }
+    if (unmatched > 0)
+    {
+      unmatchedReport << " " << static_cast<vtkIdType>(unmatched) << " of "
+                      << out->GetNumberOfCells() << " faces of '" << wb.Name << "'";
+    }
+    counts.Unmatched += unmatched;
+    counts.Faces += static_cast<double>(out->GetNumberOfCells());
+
+    double* tau = NewArray(out, "Wall Shear Stress", 3);
+    double* normal = NewArray(out, names::WallNormal, 3);
+    double* distance = NewArray(out, "Wall Distance", 1);
+    double* utau = NewArray(out, "Friction Velocity", 1);
+    double* yplus = NewArray(out, "y+", 1);
+    auto regimes = vtkSmartPointer<vtkIntArray>::New();
+    regimes->SetName("Near-Wall Regime");
+    regimes->SetNumberOfTuples(out->GetNumberOfCells());
+    out->GetCellData()->AddArray(regimes);
+    for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
+    {
+      const WallFace& face = wb.Faces[f];
+      double r[9];
+      int regime = UnknownRegime;
+      if (face.Cell >= 0)
+      {
+        Reconstruct(s, volume[face.Block], face, scratch, r, regime, counts);
+      }
+      else
+      {
+        for (double& v : r)
+        {
+          v = NaN;
+        }
+      }
+      for (int k = 0; k < 3; ++k)
+      {
+        tau[3 * f + k] = r[k];
+        normal[3 * f + k] = r[3 + k];
+      }
+      distance[f] = r[6];
+      utau[f] = r[7];
+      yplus[f] = r[8];
+      regimes->SetValue(f, regime);
+    }
+  }
+
+  double global[5] = { counts.Faces, counts.Unmatched, counts.OffWall, counts.FellBack,
+    counts.Failed };
+  GlobalSum(global, 5);
+  if (global[1] > 0)
+  {
+    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[1]) << " of "
+                                         << static_cast<vtkIdType>(global[0])
+                                         << " wall faces match no boundary face of the volume "
+                                            "(walls that do not touch it, or held by another rank) "
+                                            "and carry NaN." << unmatchedReport.str());
+  }
+  if (global[2] + global[4] > 0)
+  {
+    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[2])
+                                         << " faces whose adjacent cell centre is not off the wall "
+                                            "(degenerate cells) and "
+                                         << static_cast<vtkIdType>(global[4])
+                                         << " faces whose reconstruction failed carry NaN.");
+  }
+  if (global[3] > 0 && ProcessRank() == 0)
+  {
+    vtkWarningMacro("Shear Projection: the wall fit found no second distinct wall distance on "
+      << static_cast<vtkIdType>(global[3]) << " faces and used the near-wall difference there.");
+  }
+  return 1;
+}
+
+//------------------------------------------------------------------------------
+void vtkShearProjection::PrintSelf(ostream& os, vtkIndent indent)
+{
+  this->Superclass::PrintSelf(os, indent);
+  os << indent << "Method: " << this->Method << "\n";
+  os << indent << "Viscosity: " << this->Viscosity << "\n";
+  os << indent << "ViscosityKind: " << this->ViscosityKind << "\n";
+  os << indent << "Density: " << this->Density << "\n";
+  os << indent << "WallLawKappa: " << this->WallLawKappa << "\n";
+  os << indent << "WallLawB: " << this->WallLawB << "\n";
+}

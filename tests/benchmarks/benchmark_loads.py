@@ -244,7 +244,7 @@ def main():
                 t, (force, out_bytes), peak = timed(run, args.repeat)  # re-executions
                 results[key] = (t, force)
                 print("%-50s first %7.3f s, again %7.3f s = %6.2f M faces/s   outputs %5.1f B/face,"
-                      " peak beyond them %5.1f B/face"
+                      " peak new memory %5.1f B/face"
                       % (key, first, t, nf / t / 1e6, out_bytes / nf, peak * 1024.0 / nf))
                 del run
         vtkSMPTools.SetBackend("Sequential")

@@ -23,6 +23,7 @@
 #include "vtkInformationVector.h"
 #include "vtkIntArray.h"
 #include "vtkMultiBlockDataSet.h"
+#include "vtkNew.h"
 #include "vtkObjectFactory.h"
 #include "vtkPointData.h"
 #include "vtkPointSet.h"
@@ -275,8 +276,18 @@ struct WallFace
   double WallVelocity[3] = { 0, 0, 0 };
 };
 
+/// Work objects reused from face to face (no allocation per face).
+struct Scratch
+{
+  vtkNew<vtkGenericCell> Cell;
+  vtkNew<vtkIdList> CellPoints;
+  vtkNew<vtkIdList> Neighbours;
+  vtkNew<vtkIdList> NeighbourPoints;
+  std::vector<double> Xk, Uk, Ds, Us;
+};
+
 /// Shear and wall quantities for one face.
-void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, vtkGenericCell* scratch,
+void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scratch& work,
   double out[9], int& regime, Counts& counts)
 {
   for (int k = 0; k < 9; ++k)
@@ -285,7 +296,7 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, vtkGe
   }
   regime = UnknownRegime;
   vtkDataSet* mesh = vb.Index->Mesh;
-  auto cellPoints = vtkSmartPointer<vtkIdList>::New();
+  vtkIdList* cellPoints = work.CellPoints;
   mesh->GetCellPoints(face.Cell, cellPoints);
   double xP[3], uP[3];
   CellCentre(mesh, cellPoints, xP);
@@ -329,11 +340,15 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, vtkGe
   const double* uW = face.WallVelocity;
 
   // Face neighbours of the adjacent cell (gradient and wall fit).
-  std::vector<double> xk, uk;
+  std::vector<double>& xk = work.Xk;
+  std::vector<double>& uk = work.Uk;
+  xk.clear();
+  uk.clear();
   auto gather = [&]() {
+    vtkGenericCell* scratch = work.Cell;
     mesh->GetCell(face.Cell, scratch);
-    auto neighbours = vtkSmartPointer<vtkIdList>::New();
-    auto nbPoints = vtkSmartPointer<vtkIdList>::New();
+    vtkIdList* neighbours = work.Neighbours;
+    vtkIdList* nbPoints = work.NeighbourPoints;
     for (int f = 0; f < scratch->GetNumberOfFaces(); ++f)
     {
       vtkCell* cf = scratch->GetFace(f);
@@ -383,8 +398,10 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, vtkGe
     case vtkShearProjection::WALL_FIT:
     {
       gather();
-      std::vector<double> ds{ d };
-      std::vector<double> us(uP, uP + 3);
+      std::vector<double>& ds = work.Ds;
+      std::vector<double>& us = work.Us;
+      ds.assign(1, d);
+      us.assign(uP, uP + 3);
       for (std::size_t j = 0; j < xk.size() / 3; ++j)
       {
         const double off[3] = { xk[3 * j] - xf[0], xk[3 * j + 1] - xf[1], xk[3 * j + 2] - xf[2] };
@@ -713,7 +730,7 @@ int vtkShearProjection::RequestData(
 
   Counts counts;
   std::ostringstream unmatchedReport;
-  auto scratch = vtkSmartPointer<vtkGenericCell>::New();
+  Scratch scratch;
   for (std::size_t w = 0; w < walls.size(); ++w)
   {
     WallBlock& wb = walls[w];

@@ -24,6 +24,18 @@ Output (default folder data/demo, or the first command-line argument)
   row-major du_i/dx_j), cell ``RegionId`` (int32: 0, 1, 2).
 * ``analytic.json``: scenario parameters and the exact loads on each
   spherical zone and on the whole bead.
+* ``bead_volume.vtu`` (inline binary): the oil around the bead, a
+  spherical shell R <= r <= 3R of hexahedra (wedges in the two polar rows)
+  on the same 36 x 72 latitude/longitude lattice as the surface, 18 radial
+  layers graded toward the bead (``wallloads_scenes.spherical_shell``,
+  stretch 2: first layer 0.037 R, last 0.24 R).  Its inner boundary is the
+  bead surface face for face (same coordinates, same face order).  Cell
+  arrays, evaluated at the cell centroids (vertex means): ``U`` (m/s, 3),
+  the velocity in the bead frame -- Stokes flow past the translating sphere
+  plus the flow of the rotating sphere, so U = Omega x x on the bead -- and
+  ``p`` (Pa), the static pressure p_inf + Stokes pressure - rho g z, equal
+  to the surface ``p`` on the bead.  The file is not used by bead_loads.py;
+  it feeds Shear Projection (tests/python/test_shear_demo_volume.py).
 
 Usage: ``pvpython data/generate_demo.py [outdir]``
 """
@@ -52,6 +64,9 @@ G_VEC = np.array([0.0, 0.0, -G_ACC])
 P_INF = 1.0e5                        # Pa, far-field pressure at z = 0
 
 N_POLAR, N_AZIMUTH = 36, 72
+VOLUME_OUTER_RADIUS = 3.0 * RADIUS   # m, outer boundary of the fluid volume
+VOLUME_N_RADIAL = 18                 # radial layers (n_polar / 2)
+VOLUME_STRETCH = 2.0                 # wallloads_scenes.stretched_nodes grading
 ORDERING = "into_wall"
 REGIONS = [  # (block name, RegionId, theta range in degrees)
     ("Upper Cap", 0, (0.0, 60.0)),
@@ -257,6 +272,69 @@ def verify(path, blocks):
     return out
 
 
+# --- Fluid volume --------------------------------------------------------------------
+
+def volume_velocity(x):
+    """Velocity in the bead frame at points x off the bead (m/s, (M, 3)).
+
+    Stokes flow past a fixed sphere in the stream U (Stokes 1851; Batchelor
+    1967, §4.9) plus the flow of a sphere rotating at Omega in fluid at rest
+    (Landau & Lifshitz, Fluid Mechanics, §20); linear, so they superpose.
+    On the bead, U = Omega x x (the spinning wall).
+    """
+    return (ws.stokes_sphere_velocity(x, RADIUS, U_VEC, CENTER)
+            + ws.rotating_sphere_velocity(x, RADIUS, OMEGA_VEC, CENTER))
+
+
+def volume_pressure(x):
+    """Static pressure at points x off the bead: p_inf + Stokes pressure - rho g z (Pa).
+
+    The rotation adds no pressure in creeping flow; at r = R this equals
+    static_pressure(x).
+    """
+    x = np.asarray(x, dtype=np.float64)
+    return P_INF + ws.stokes_sphere_pressure(x, RADIUS, U_VEC, MU, CENTER) + RHO * (x @ G_VEC)
+
+
+def build_volume(n_polar=N_POLAR, n_azimuth=N_AZIMUTH, n_radial=VOLUME_N_RADIAL,
+                 stretch=VOLUME_STRETCH, outer_radius=VOLUME_OUTER_RADIUS):
+    """The fluid shell around the bead as a vtkUnstructuredGrid with cell U and p.
+
+    The defaults make data/demo/bead_volume.vtu; other sizes give the
+    refinement family of the convergence tests (n_radial = n_polar / 2 keeps
+    the cell shapes).
+    """
+    sh = ws.spherical_shell(RADIUS, outer_radius, n_polar, n_azimuth, n_radial,
+                            stretch=stretch, center=CENTER)
+    xc = ws.cell_vertex_means(sh["points"], sh["cells"])
+    return ws.unstructured_grid(sh["points"], sh["cells"], sh["types"],
+                                cell_arrays={"U": volume_velocity(xc), "p": volume_pressure(xc)})
+
+
+def verify_volume(path, grid):
+    """Read the .vtu back and check its cells, points and arrays, and that the
+    inner boundary is the bead surface (the first layer's inner faces)."""
+    from vtkmodules.util.numpy_support import vtk_to_numpy
+    from vtkmodules.vtkIOXML import vtkXMLUnstructuredGridReader
+
+    rd = vtkXMLUnstructuredGridReader()
+    rd.SetFileName(path)
+    rd.Update()
+    got = rd.GetOutput()
+    assert got.GetNumberOfCells() == grid.GetNumberOfCells() > 0, "volume cells"
+    assert got.GetNumberOfPoints() == grid.GetNumberOfPoints(), "volume points"
+    np.testing.assert_array_equal(vtk_to_numpy(got.GetPoints().GetData()),
+                                  vtk_to_numpy(grid.GetPoints().GetData()))
+    np.testing.assert_array_equal(vtk_to_numpy(got.GetCellTypesArray()),
+                                  vtk_to_numpy(grid.GetCellTypesArray()))
+    for a in ("U", "p"):
+        np.testing.assert_array_equal(vtk_to_numpy(got.GetCellData().GetArray(a)),
+                                      vtk_to_numpy(grid.GetCellData().GetArray(a)))
+    P, F, _ = ws.uv_sphere(RADIUS, N_POLAR, N_AZIMUTH, center=CENTER)
+    np.testing.assert_array_equal(vtk_to_numpy(got.GetPoints().GetData())[:P.shape[0]], P)
+    return got
+
+
 def _vec(a):
     return [float(v) for v in np.asarray(a, dtype=np.float64)]
 
@@ -342,6 +420,14 @@ def main(outdir):
               % (name, e["mesh"]["n_cells"], e["total_force"][2], e["pressure_force"][2],
                  e["viscous_force"][2], e["total_moment"][2]))
     print("wrote %s and %s" % (vtm, os.path.join(outdir, "analytic.json")))
+
+    vtu = os.path.join(outdir, "bead_volume.vtu")
+    grid = build_volume()
+    ws.write_vtu(grid, vtu)
+    verify_volume(vtu, grid)
+    print("wrote %s: %d cells, %d radial layers between r = %g and %g m, %.2f MB"
+          % (vtu, grid.GetNumberOfCells(), VOLUME_N_RADIAL, RADIUS, VOLUME_OUTER_RADIUS,
+             os.path.getsize(vtu) / 1e6))
 
 
 if __name__ == "__main__":

@@ -531,6 +531,368 @@ def cylinder_region_forces(U, Gamma, radius, rho, span):
 
 
 # ---------------------------------------------------------------------------
+# Volume meshes (fluid volumes for Shear Projection)
+# ---------------------------------------------------------------------------
+#
+# The generators below return numpy points and per-type connectivity in VTK's
+# vertex order (vtkCellType.h ids), so that tests can evaluate fields at the
+# same cell centres the filters use and build the VTK grid with
+# mixed_unstructured_grid().  VTK orders a hexahedron with its first quad
+# counter-clockwise seen from the second one (right-hand normal into the
+# cell), but a wedge with its first triangle clockwise seen from the second
+# (right-hand normal out of the cell); a tetrahedron (0, 1, 2, 3) has point 3
+# on the side the right-hand normal of (0, 1, 2) points to.  These are the
+# orders vtkCellValidator accepts as correctly oriented (checked by hand on
+# unit cells) and give positive vtkCellSizeFilter volumes, which
+# volume_mesh_check() verifies.
+
+__all__ += [
+    "VTK_TETRA", "VTK_HEXAHEDRON", "VTK_WEDGE",
+    "mixed_unstructured_grid", "mixed_cell_vertex_means", "hex_grid", "grid_boundary_patch",
+    "pipe_volume", "split_prisms_to_tets", "detached_faces", "volume_mesh_check",
+]
+
+#: VTK cell type ids (vtkCellType.h).
+VTK_TETRA, VTK_HEXAHEDRON, VTK_WEDGE = 10, 12, 13
+
+
+def mixed_unstructured_grid(points, cells, cell_arrays=None, point_arrays=None):
+    """Build a vtkUnstructuredGrid from numpy.
+
+    ``cells`` is a list of ``(vtk_cell_type, connectivity (k, m))`` pairs;
+    cell ids follow the list order.  Arrays as in :func:`polydata` (cell
+    arrays in the same concatenated cell order).
+    """
+    from vtkmodules.util.numpy_support import numpy_to_vtk
+    from vtkmodules.util.vtkConstants import VTK_ID_TYPE, VTK_UNSIGNED_CHAR
+    from vtkmodules.vtkCommonCore import vtkPoints
+    from vtkmodules.vtkCommonDataModel import vtkCellArray, vtkUnstructuredGrid
+
+    P = np.ascontiguousarray(np.asarray(points, dtype=np.float64).reshape(-1, 3))
+    types, sizes, conns = [], [], []
+    for ctype, conn in cells:
+        conn = np.asarray(conn, dtype=np.int64)
+        if conn.ndim != 2:
+            raise ValueError("connectivity must be (k, m)")
+        types.append(np.full(conn.shape[0], int(ctype), dtype=np.uint8))
+        sizes.append(np.full(conn.shape[0], conn.shape[1], dtype=np.int64))
+        conns.append(conn.ravel())
+    types = np.concatenate(types) if types else np.zeros(0, np.uint8)
+    sizes = np.concatenate(sizes) if sizes else np.zeros(0, np.int64)
+    conn = np.concatenate(conns) if conns else np.zeros(0, np.int64)
+    if conn.size and (conn.min() < 0 or conn.max() >= P.shape[0]):
+        raise ValueError("cell refers to a point id out of range")
+    offsets = np.concatenate([[0], np.cumsum(sizes)]).astype(np.int64)
+    vpts = vtkPoints()
+    vpts.SetData(numpy_to_vtk(P, deep=1))
+    ca = vtkCellArray()
+    ca.SetData(numpy_to_vtk(offsets, deep=1, array_type=VTK_ID_TYPE),
+               numpy_to_vtk(conn, deep=1, array_type=VTK_ID_TYPE))
+    ug = vtkUnstructuredGrid()
+    ug.SetPoints(vpts)
+    ug.SetCells(numpy_to_vtk(types, deep=1, array_type=VTK_UNSIGNED_CHAR), ca)
+    n_cells = int(types.size)
+    for name, values in (cell_arrays or {}).items():
+        ug.GetCellData().AddArray(_to_vtk_array(name, values, n_cells, "cell"))
+    for name, values in (point_arrays or {}).items():
+        ug.GetPointData().AddArray(_to_vtk_array(name, values, P.shape[0], "point"))
+    return ug
+
+
+def mixed_cell_vertex_means(points, cells):
+    """Mean of each cell's vertices, (K, 3), cells in the order of ``cells``.
+
+    This is the cell centre vtkShearProjection uses (its header: the cell
+    value sits at the vertex mean); it differs from the volume centroid for
+    cells that are not parallelepipeds.
+    """
+    P = np.asarray(points, dtype=np.float64)
+    out = [P[np.asarray(conn, dtype=np.int64)].mean(axis=1) for _, conn in cells]
+    return np.concatenate(out) if out else np.zeros((0, 3))
+
+
+def hex_grid(x, y, z, rotation=None, origin=(0.0, 0.0, 0.0)):
+    """Structured block of hexahedra on the tensor grid x (nx) * y (ny) * z (nz).
+
+    Point (i, j, k) has id i + nx (j + ny k) and sits at
+    origin + R (x_i, y_j, z_k) with R the optional 3x3 ``rotation``.  Cell
+    (i, j, k) (id i + (nx-1)(j + (ny-1) k)) has its VTK corners
+    (i,j,k) (i+1,j,k) (i+1,j+1,k) (i,j+1,k) and the same at k+1 (positive
+    volume for a proper rotation).  Returns ``(points (N,3), hex (K,8),
+    ijk (K,3))``.
+    """
+    x, y, z = (np.asarray(v, dtype=np.float64) for v in (x, y, z))
+    nx, ny, nz = x.size, y.size, z.size
+    if min(nx, ny, nz) < 2:
+        raise ValueError("need at least two coordinates per direction")
+    K, J, I = np.meshgrid(np.arange(nz), np.arange(ny), np.arange(nx), indexing="ij")
+    local = np.stack([x[I.ravel()], y[J.ravel()], z[K.ravel()]], axis=1)
+    R = np.eye(3) if rotation is None else np.asarray(rotation, dtype=np.float64)
+    points = np.asarray(origin, dtype=np.float64) + local @ R.T
+
+    def pid(i, j, k):
+        return i + nx * (j + ny * k)
+
+    K, J, I = np.meshgrid(np.arange(nz - 1), np.arange(ny - 1), np.arange(nx - 1), indexing="ij")
+    i, j, k = I.ravel(), J.ravel(), K.ravel()
+    hexes = np.stack([pid(i, j, k), pid(i + 1, j, k), pid(i + 1, j + 1, k), pid(i, j + 1, k),
+                      pid(i, j, k + 1), pid(i + 1, j, k + 1), pid(i + 1, j + 1, k + 1),
+                      pid(i, j + 1, k + 1)], axis=1)
+    return points, hexes.astype(np.int64), np.stack([i, j, k], axis=1)
+
+
+def grid_boundary_patch(x, y, z, axis, side, rotation=None, origin=(0.0, 0.0, 0.0),
+                        ordering="into_wall"):
+    """The boundary plane of :func:`hex_grid` normal to ``axis`` at its
+    first (``side`` 0) or last (``side`` 1) coordinate, as quads with their
+    OWN points (not the grid's ids).
+
+    ``'into_wall'`` orders each quad so its right-hand normal points out of
+    the grid (as flow solvers store boundary faces); ``'into_fluid'`` the
+    reverse.  Returns ``(points (M,3), faces list of 4-tuples)``; faces run
+    over the two in-plane axes (axis+1, axis+2) mod 3, the first fastest.
+    """
+    _check_ordering(ordering)
+    coords = [np.asarray(v, dtype=np.float64) for v in (x, y, z)]
+    a, b = (axis + 1) % 3, (axis + 2) % 3
+    ca, cb = coords[a], coords[b]
+    B, A = np.meshgrid(np.arange(cb.size), np.arange(ca.size), indexing="ij")
+    local = np.zeros((A.size, 3))
+    local[:, a] = ca[A.ravel()]
+    local[:, b] = cb[B.ravel()]
+    local[:, axis] = coords[axis][0 if side == 0 else -1]
+    R = np.eye(3) if rotation is None else np.asarray(rotation, dtype=np.float64)
+    points = np.asarray(origin, dtype=np.float64) + local @ R.T
+    na = ca.size
+
+    def pid(p, q):
+        return p + na * q
+
+    faces = []
+    for q in range(cb.size - 1):
+        for p in range(na - 1):
+            # e_a x e_b = +e_axis: this order points along +axis.
+            f = (pid(p, q), pid(p + 1, q), pid(p + 1, q + 1), pid(p, q + 1))
+            outward_is_plus = side == 1
+            if (ordering == "into_wall") != outward_is_plus:
+                f = f[::-1]
+            faces.append(tuple(int(v) for v in f))
+    return points, faces
+
+
+#: Prism symmetries that bring the vertex at position m (0..5) to position 0
+#: while keeping the prism structure (triangles (0,1,2), (3,4,5); vertex i+3
+#: above vertex i): rotations of the triangles, and for m >= 3 the exchange
+#: of the two triangles.
+_PRISM_PERMS = np.array([[0, 1, 2, 3, 4, 5], [1, 2, 0, 4, 5, 3], [2, 0, 1, 5, 3, 4],
+                         [3, 4, 5, 0, 1, 2], [4, 5, 3, 1, 2, 0], [5, 3, 4, 2, 0, 1]])
+
+
+def _orient_tets(points, tets):
+    """Reorder tetrahedra to positive VTK orientation (swap points 1 and 2)."""
+    P = np.asarray(points, dtype=np.float64)
+    t = np.array(tets, dtype=np.int64)
+    a, b, c, d = (P[t[:, k]] for k in range(4))
+    neg = np.einsum("ij,ij->i", np.cross(b - a, c - a), d - a) < 0
+    t[neg, 1], t[neg, 2] = t[neg, 2].copy(), t[neg, 1].copy()
+    return t
+
+
+def split_prisms_to_tets(points, prisms):
+    """Split prisms into three tetrahedra each, conformingly.
+
+    ``prisms`` (k, 6) lists triangle (0, 1, 2) and triangle (3, 4, 5) with
+    vertex i+3 joined to vertex i (either winding).  Every quadrilateral face
+    is cut along the diagonal through its vertex of smallest global id, so
+    two prisms sharing a face cut it alike and the tetrahedral mesh is
+    conforming (Dompierre, Labbe, Vallet & Camarero, "How to subdivide
+    pyramids, prisms and hexahedra into tetrahedra", IMR 1999; rule recalled
+    from memory, and checked here by the face count of volume_mesh_check).
+    Returns (3k, 4) tetrahedra with positive VTK orientation.
+    """
+    W = np.asarray(prisms, dtype=np.int64)
+    if W.size == 0:
+        return np.zeros((0, 4), dtype=np.int64)
+    m = np.argmin(W, axis=1)
+    V = np.take_along_axis(W, _PRISM_PERMS[m], axis=1)   # V[:, 0] is the smallest id
+    v0, v1, v2, v3, v4, v5 = (V[:, k] for k in range(6))
+    # Face (v1, v2, v5, v4): diagonal v1-v5 when its smaller id is on it.
+    diag15 = np.minimum(v1, v5) < np.minimum(v2, v4)
+    t1 = np.where(diag15[:, None], np.stack([v0, v1, v2, v5], 1), np.stack([v0, v1, v2, v4], 1))
+    t2 = np.where(diag15[:, None], np.stack([v0, v1, v5, v4], 1), np.stack([v0, v4, v2, v5], 1))
+    t3 = np.stack([v0, v4, v5, v3], 1)
+    tets = np.stack([t1, t2, t3], axis=1).reshape(-1, 4)
+    return _orient_tets(points, tets)
+
+
+def _split_quads_min_diagonal(quads):
+    """Split quads (k, 4) into triangles along the diagonal through the
+    smallest id (the rule of split_prisms_to_tets), keeping the winding."""
+    Q = np.asarray(quads, dtype=np.int64)
+    m = np.argmin(Q, axis=1)
+    through02 = (m % 2) == 0
+    a, b, c, d = (Q[:, k] for k in range(4))
+    t1 = np.where(through02[:, None], np.stack([a, b, c], 1), np.stack([a, b, d], 1))
+    t2 = np.where(through02[:, None], np.stack([a, c, d], 1), np.stack([b, c, d], 1))
+    return np.stack([t1, t2], axis=1).reshape(-1, 3)
+
+
+def pipe_volume(radius, length, n_radial, n_around, n_axial, kind="hex", ordering="into_wall"):
+    """Fluid volume of a circular pipe r <= R, 0 <= z <= L (axis along z).
+
+    A polar grid: at each of the n_axial+1 stations z_k = L k/n_axial there
+    is one axis point and rings i = 1..n_radial of radius r_i = R i/n_radial
+    with n_around points at theta_j = 2 pi j/n_around (all points on the
+    wall ring lie exactly on the circle; the wall faces are flat, so the
+    discrete wall is the inscribed polygonal prism).  Point ids: station k
+    holds ids k Np .. (k+1) Np - 1, Np = 1 + n_radial n_around, the axis
+    first, then ring i point j at 1 + (i-1) n_around + j.
+
+    kind:
+      'hex'   hexahedra between consecutive rings around a core of wedges
+              (axis, ring 1): every wall cell is a hexahedron;
+      'wedge' the disc triangulated (each polar quad cut along its
+              (i, j)-(i+1, j+1) diagonal; the core fan) and extruded: wedges;
+      'tet'   each wedge of 'wedge' split into three tetrahedra by
+              split_prisms_to_tets (conforming); the wall faces are then
+              triangles.
+
+    Returns a dict: ``points`` (N,3); ``cells`` [(vtk type, conn)];
+    ``wall`` (F, m) lateral wall faces in volume point ids (quads, or
+    triangles for 'tet'), ``'into_wall'`` = right-hand normal radially
+    outward; ``wall_theta`` (F,) the angle of each wall face's vertex mean;
+    ``caps`` the number of end-cap faces expected on the boundary.
+    """
+    _check_ordering(ordering)
+    if kind not in ("hex", "wedge", "tet"):
+        raise ValueError("kind must be 'hex', 'wedge' or 'tet'")
+    R, L = float(radius), float(length)
+    nr, nt, nz = int(n_radial), int(n_around), int(n_axial)
+    if nr < 1 or nt < 3 or nz < 1:
+        raise ValueError("need n_radial >= 1, n_around >= 3, n_axial >= 1")
+    Np = 1 + nr * nt
+    theta = 2.0 * np.pi * np.arange(nt) / nt
+    r = R * np.arange(1, nr + 1) / nr
+    ring = np.stack([np.outer(r, np.cos(theta)).ravel(), np.outer(r, np.sin(theta)).ravel()], axis=1)
+    layer = np.vstack([[0.0, 0.0], ring])
+    z = L * np.arange(nz + 1) / nz
+    points = np.hstack([np.tile(layer, (nz + 1, 1)), np.repeat(z, Np)[:, None]])
+
+    def pid(i, j, k):          # ring i >= 1, any j (wrapped), station k
+        return k * Np + 1 + (i - 1) * nt + (j % nt)
+
+    def axis_id(k):
+        return k * Np
+
+    j = np.arange(nt)
+    # 2D cells of one station (ids at station 0), counter-clockwise about +z.
+    core = np.stack([np.zeros(nt, np.int64), pid(1, j, 0), pid(1, j + 1, 0)], axis=1)
+    I, Jq = np.meshgrid(np.arange(1, nr), j, indexing="ij")
+    I, Jq = I.ravel(), Jq.ravel()
+    quads = np.stack([pid(I, Jq, 0), pid(I + 1, Jq, 0), pid(I + 1, Jq + 1, 0), pid(I, Jq + 1, 0)], axis=1)
+
+    def extrude(faces2d):
+        """(k, m) station-0 ids -> (nz k, 2m): bottom ids then top ids."""
+        f = np.asarray(faces2d, dtype=np.int64)
+        out = [np.hstack([f + k * Np, f + (k + 1) * Np]) for k in range(nz)]
+        return np.vstack(out) if out else np.zeros((0, 2 * f.shape[1]), np.int64)
+
+    def vtk_wedges(tris_ccw):
+        w = extrude(tris_ccw)               # natural: (b0 b1 b2 t0 t1 t2), ccw
+        return w[:, [0, 2, 1, 3, 5, 4]]     # VTK: first triangle clockwise from the second
+
+    cells = []
+    if kind == "hex":
+        if quads.size:
+            cells.append((VTK_HEXAHEDRON, extrude(quads)))
+        cells.append((VTK_WEDGE, vtk_wedges(core)))
+        # list the hexes first so cell ids of wall cells do not depend on the core
+    else:
+        tris = [core]
+        if quads.size:
+            tris.append(np.stack([quads[:, 0], quads[:, 1], quads[:, 2]], 1))
+            tris.append(np.stack([quads[:, 0], quads[:, 2], quads[:, 3]], 1))
+        tris = np.vstack(tris)
+        if kind == "wedge":
+            cells.append((VTK_WEDGE, vtk_wedges(tris)))
+        else:
+            cells.append((VTK_TETRA, split_prisms_to_tets(points, extrude(tris))))
+
+    K, Jw = np.meshgrid(np.arange(nz), j, indexing="ij")
+    K, Jw = K.ravel(), Jw.ravel()
+    wall = np.stack([pid(nr, Jw, K), pid(nr, Jw + 1, K), pid(nr, Jw + 1, K + 1), pid(nr, Jw, K + 1)],
+                    axis=1)                  # e_theta x e_z = e_r: radially outward
+    n_cap_per_end = nt * (2 * nr - 1) if kind != "hex" else nt * nr
+    if kind == "tet":
+        wall = _split_quads_min_diagonal(wall)
+    if ordering == "into_fluid":
+        wall = wall[:, ::-1]
+    wc = points[wall].mean(axis=1)
+    return {
+        "points": points,
+        "cells": cells,
+        "wall": wall,
+        "wall_theta": np.mod(np.arctan2(wc[:, 1], wc[:, 0]), 2.0 * np.pi),
+        "caps": 2 * n_cap_per_end,
+    }
+
+
+def detached_faces(points, faces, seed=None):
+    """The same faces with their own, renumbered points (not the volume's ids).
+
+    Only the points the faces use are kept; with ``seed`` they are also
+    shuffled, so that no point id of the result matches the source.
+    Returns ``(points (M,3), faces (F, m) int64)``.
+    """
+    P = np.asarray(points, dtype=np.float64)
+    F = np.asarray(faces, dtype=np.int64)
+    used, inverse = np.unique(F.ravel(), return_inverse=True)
+    order = np.arange(used.size)
+    if seed is not None:
+        order = np.random.default_rng(seed).permutation(used.size)
+    new_of_old = np.empty(used.size, dtype=np.int64)
+    new_of_old[order] = np.arange(used.size)
+    newP = np.empty((used.size, 3))
+    newP[new_of_old] = P[used]
+    return newP, new_of_old[inverse].reshape(F.shape)
+
+
+def volume_mesh_check(ug, expected_volume=None, expected_boundary_faces=None, rtol=1e-12):
+    """Validate a generated volume mesh with VTK's own tools.
+
+    The cell volumes (vtkCellSizeFilter, signed: an inverted VTK vertex
+    order gives a negative volume) must be positive and sum to
+    ``expected_volume`` (if given), and the number of
+    boundary faces (vtkDataSetSurfaceFilter) must equal
+    ``expected_boundary_faces`` (if given): a non-conforming mesh shows extra
+    internal faces there.  Returns ``(total volume, boundary face count)``.
+    """
+    from vtkmodules.util.numpy_support import vtk_to_numpy
+    from vtkmodules.vtkFiltersGeometry import vtkDataSetSurfaceFilter
+    from vtkmodules.vtkFiltersVerdict import vtkCellSizeFilter
+
+    cs = vtkCellSizeFilter()
+    cs.SetInputData(ug)
+    cs.ComputeVertexCountOff()
+    cs.ComputeLengthOff()
+    cs.ComputeAreaOff()
+    cs.Update()
+    vol = vtk_to_numpy(cs.GetOutput().GetCellData().GetArray("Volume"))
+    if np.any(vol <= 0):
+        raise AssertionError("%d cells with volume <= 0" % np.count_nonzero(vol <= 0))
+    total = float(vol.sum())
+    if expected_volume is not None and abs(total - expected_volume) > rtol * abs(expected_volume):
+        raise AssertionError("volume %.17g, expected %.17g" % (total, expected_volume))
+    sf = vtkDataSetSurfaceFilter()
+    sf.SetInputData(ug)
+    sf.Update()
+    nb = sf.GetOutput().GetNumberOfCells()
+    if expected_boundary_faces is not None and nb != expected_boundary_faces:
+        raise AssertionError("%d boundary faces, expected %d" % (nb, expected_boundary_faces))
+    return total, nb
+
+
+# ---------------------------------------------------------------------------
 # Output
 # ---------------------------------------------------------------------------
 
@@ -559,6 +921,239 @@ def write_vtm(blocks, path):
     if w.Write() != 1:
         raise IOError("failed to write %s" % path)
     return mb
+
+
+# ---------------------------------------------------------------------------
+# Volume meshes and volume fields (for Shear Projection)
+# ---------------------------------------------------------------------------
+
+__all__ += [
+    "stokes_sphere_pressure", "stokes_sphere_velocity_gradient",
+    "rotating_sphere_velocity_gradient",
+    "stretched_nodes", "spherical_shell", "hex_box", "cell_vertex_means",
+    "unstructured_grid", "write_vtu",
+]
+
+#: VTK cell type ids used below (vtkCellType.h).
+VTK_WEDGE_ID, VTK_HEXAHEDRON_ID = 13, 12
+
+
+def stokes_sphere_pressure(x, radius, U, mu, center=(0.0, 0.0, 0.0)):
+    """Creeping-flow pressure p - p_inf at points x off a fixed sphere.
+
+    p - p_inf = -(3/2) mu R (U . y) / r^3, y = x - c (Stokes 1851; Batchelor,
+    An Introduction to Fluid Dynamics, 1967, §4.9).  At r = R it equals the
+    ``p`` of :func:`stokes_sphere`.  Returns (M,).
+    """
+    x = _as_points(x)
+    y = x - np.asarray(center, dtype=np.float64)
+    r = np.linalg.norm(y, axis=1)
+    return -1.5 * float(mu) * float(radius) * (y @ np.asarray(U, dtype=np.float64)) / r**3
+
+
+def stokes_sphere_velocity_gradient(x, radius, U, center=(0.0, 0.0, 0.0)):
+    """Gradient of :func:`stokes_sphere_velocity`, row-major G[i][j] = du_i/dx_j, (M, 9).
+
+    Differentiating u = U - (3R/4)(U/r + (U.y) y/r^3) - (R^3/4)(U/r^3 - 3 (U.y) y/r^5)
+    term by term (our own derivation, checked against central differences in
+    the self-check):
+      d(U_i/r)/dy_j            = -U_i y_j / r^3
+      d((U.y) y_i/r^3)/dy_j    = (U_j y_i + (U.y) delta_ij)/r^3 - 3 (U.y) y_i y_j/r^5
+      d(U_i/r^3)/dy_j          = -3 U_i y_j / r^5
+      d((U.y) y_i/r^5)/dy_j    = (U_j y_i + (U.y) delta_ij)/r^5 - 5 (U.y) y_i y_j/r^7.
+    """
+    x = _as_points(x)
+    U = np.asarray(U, dtype=np.float64)
+    y = x - np.asarray(center, dtype=np.float64)
+    r = np.linalg.norm(y, axis=1)[:, None, None]
+    Uy = (y @ U)[:, None, None]
+    R = float(radius)
+    I = np.eye(3)[None, :, :]
+    Uiyj = np.einsum("i,mj->mij", U, y)
+    yiUj = np.einsum("mi,j->mij", y, U)
+    yy = np.einsum("mi,mj->mij", y, y)
+    A = -Uiyj / r**3 + (yiUj + Uy * I) / r**3 - 3.0 * Uy * yy / r**5
+    B = -3.0 * Uiyj / r**5 - 3.0 * ((yiUj + Uy * I) / r**5 - 5.0 * Uy * yy / r**7)
+    return (-0.75 * R * A - 0.25 * R**3 * B).reshape(-1, 9)
+
+
+def rotating_sphere_velocity_gradient(x, radius, Omega, center=(0.0, 0.0, 0.0)):
+    """Gradient of :func:`rotating_sphere_velocity`, row-major (M, 9).
+
+    du_i/dy_j = R^3 [eps_ikj Omega_k r^-3 - 3 (Omega x y)_i y_j r^-5]
+    (as in :func:`rotating_sphere`, here off the wall).
+    """
+    x = _as_points(x)
+    Om = np.asarray(Omega, dtype=np.float64)
+    y = x - np.asarray(center, dtype=np.float64)
+    r = np.linalg.norm(y, axis=1)[:, None, None]
+    W = _cross_matrix(Om)[None, :, :]
+    Oxy = np.cross(Om, y)
+    G = float(radius) ** 3 * (W / r**3 - 3.0 * np.einsum("mi,mj->mij", Oxy, y) / r**5)
+    return G.reshape(-1, 9)
+
+
+def stretched_nodes(a, b, n, stretch=0.0):
+    """n + 1 nodes from a to b, finer near a: a + (b - a) g(k/n).
+
+    g(s) = (exp(stretch s) - 1)/(exp(stretch) - 1) (uniform for stretch = 0).
+    The mapping is fixed and smooth, so refining n refines every cell by the
+    same factor (successive cells grow by exp(stretch/n) -> 1): the cell
+    sizes scale like 1/n everywhere, as a convergence study needs.
+    """
+    s = np.arange(n + 1, dtype=np.float64) / n
+    if stretch == 0.0:
+        g = s
+    else:
+        g = np.expm1(stretch * s) / np.expm1(stretch)
+    nodes = a + (b - a) * g
+    nodes[0], nodes[-1] = a, b
+    return nodes
+
+
+def spherical_shell(r_inner, r_outer, n_polar, n_azimuth, n_radial, stretch=0.0,
+                    center=(0.0, 0.0, 0.0)):
+    """Volume mesh of the shell r_inner <= r <= r_outer, graded toward r_inner.
+
+    Every radial layer is the :func:`uv_sphere` (n_polar, n_azimuth) lattice
+    swept between two concentric spheres whose radii are
+    ``stretched_nodes(r_inner, r_outer, n_radial, stretch)``; the quads of the
+    lattice give hexahedra (VTK_HEXAHEDRON), the triangle fans at the poles
+    wedges (VTK_WEDGE).  Shell k holds points [k Ns, (k+1) Ns) in the point
+    layout of uv_sphere, Ns = 2 + (n_polar - 1) n_azimuth, so the inner wall
+    is exactly ``uv_sphere(r_inner, n_polar, n_azimuth, center)`` (same
+    coordinates, same face order, same point ids).
+
+    Cells are ordered layer by layer (innermost first), within a layer in the
+    face order of uv_sphere, with VTK's orientation conventions (positive
+    volume): hexahedron base (0,1,2,3) facing the top (4..7), wedge base
+    (0,1,2) facing away from the top (3,4,5).
+
+    Returns dict: ``points`` (N, 3), ``cells`` (list of tuples), ``types``
+    (C,) uint8, ``layer`` (C,) int, ``polar_row`` (C,) int, ``radii``
+    (n_radial + 1,), ``inner_faces`` (uv_sphere faces, into_fluid order).
+    """
+    n_polar, n_azimuth, n_radial = int(n_polar), int(n_azimuth), int(n_radial)
+    if not (0.0 < r_inner < r_outer):
+        raise ValueError("need 0 < r_inner < r_outer")
+    if n_radial < 1:
+        raise ValueError("need n_radial >= 1")
+    radii = stretched_nodes(float(r_inner), float(r_outer), n_radial, stretch)
+    shells = []
+    for r in radii:
+        P, F, rows = uv_sphere(r, n_polar, n_azimuth, center=center, ordering="into_fluid")
+        shells.append(P)
+    Ns = shells[0].shape[0]
+    points = np.vstack(shells)
+    cells, types, layer, polar_row = [], [], [], []
+    for k in range(n_radial):
+        lo, hi = k * Ns, (k + 1) * Ns
+        for f, row in zip(F, rows):
+            if len(f) == 4:
+                # into_fluid quad: Newell normal along +r, i.e. toward the top.
+                cells.append(tuple(lo + v for v in f) + tuple(hi + v for v in f))
+                types.append(VTK_HEXAHEDRON_ID)
+            else:
+                # the wedge base must face away from the top: reverse the triangle.
+                a, b, c = f
+                cells.append((lo + a, lo + c, lo + b, hi + a, hi + c, hi + b))
+                types.append(VTK_WEDGE_ID)
+            layer.append(k)
+            polar_row.append(int(row))
+    return {
+        "points": points,
+        "cells": cells,
+        "types": np.asarray(types, dtype=np.uint8),
+        "layer": np.asarray(layer, dtype=np.int64),
+        "polar_row": np.asarray(polar_row, dtype=np.int64),
+        "radii": radii,
+        "inner_faces": F,
+    }
+
+
+def hex_box(x_nodes, y_nodes, z_nodes):
+    """Structured block of hexahedra on the tensor grid of the given node lists.
+
+    Point (i, j, k) has id i + nx (j + ny k) with nx, ny, nz the node counts.
+    Cell (i, j, k) (cells counted likewise, i fastest) is a VTK_HEXAHEDRON
+    with base z = z_k and top z = z_{k+1} (positive volume for increasing
+    nodes).  Returns ``(points (N, 3), cells (C, 8) int64)``.
+    """
+    x = np.asarray(x_nodes, dtype=np.float64)
+    y = np.asarray(y_nodes, dtype=np.float64)
+    z = np.asarray(z_nodes, dtype=np.float64)
+    nx, ny, nz = x.size, y.size, z.size
+    Z, Y, X = np.meshgrid(z, y, x, indexing="ij")
+    points = np.stack([X.ravel(), Y.ravel(), Z.ravel()], axis=1)
+    k, j, i = np.meshgrid(np.arange(nz - 1), np.arange(ny - 1), np.arange(nx - 1), indexing="ij")
+    i, j, k = i.ravel(), j.ravel(), k.ravel()
+    pid = lambda a, b, c: a + nx * (b + ny * c)
+    cells = np.stack([pid(i, j, k), pid(i + 1, j, k), pid(i + 1, j + 1, k), pid(i, j + 1, k),
+                      pid(i, j, k + 1), pid(i + 1, j, k + 1), pid(i + 1, j + 1, k + 1),
+                      pid(i, j + 1, k + 1)], axis=1).astype(np.int64)
+    return points, cells
+
+
+def cell_vertex_means(points, cells):
+    """Mean of each cell's vertices, (C, 3): the cell centre Shear Projection uses."""
+    P = np.asarray(points, dtype=np.float64)
+    cells = [tuple(c) for c in cells] if isinstance(cells, np.ndarray) else cells
+    C = np.zeros((len(cells), 3))
+    for idx, conn in _group_faces(cells):
+        C[idx] = P[conn].mean(axis=1)
+    return C
+
+
+def unstructured_grid(points, cells, cell_types, cell_arrays=None, point_arrays=None):
+    """vtkUnstructuredGrid from points, cells (tuples or an (C, m) array) and VTK type ids.
+
+    Arrays as in :func:`polydata` (deep copies; integer arrays keep their type).
+    """
+    from vtkmodules.util.numpy_support import numpy_to_vtk
+    from vtkmodules.util.vtkConstants import VTK_ID_TYPE, VTK_UNSIGNED_CHAR
+    from vtkmodules.vtkCommonCore import vtkPoints
+    from vtkmodules.vtkCommonDataModel import vtkCellArray, vtkUnstructuredGrid
+
+    P = np.ascontiguousarray(np.asarray(points, dtype=np.float64).reshape(-1, 3))
+    if isinstance(cells, np.ndarray):
+        sizes = np.full(cells.shape[0], cells.shape[1], dtype=np.int64)
+        conn = np.ascontiguousarray(cells.reshape(-1), dtype=np.int64)
+    else:
+        sizes = np.fromiter((len(c) for c in cells), dtype=np.int64, count=len(cells))
+        conn = np.fromiter((i for c in cells for i in c), dtype=np.int64, count=int(sizes.sum()))
+    n_cells = sizes.size
+    types = np.ascontiguousarray(np.broadcast_to(np.asarray(cell_types, dtype=np.uint8), (n_cells,)))
+    offsets = np.concatenate([[0], np.cumsum(sizes)]).astype(np.int64)
+    pts = vtkPoints()
+    pts.SetDataTypeToDouble()
+    pts.SetData(numpy_to_vtk(P, deep=1))
+    ca = vtkCellArray()
+    ca.SetData(numpy_to_vtk(offsets, deep=1, array_type=VTK_ID_TYPE),
+               numpy_to_vtk(conn, deep=1, array_type=VTK_ID_TYPE))
+    ug = vtkUnstructuredGrid()
+    ug.SetPoints(pts)
+    ug.SetCells(numpy_to_vtk(types, deep=1, array_type=VTK_UNSIGNED_CHAR), ca)
+    for name, values in (cell_arrays or {}).items():
+        ug.GetCellData().AddArray(_to_vtk_array(name, values, n_cells, "cell"))
+    for name, values in (point_arrays or {}).items():
+        ug.GetPointData().AddArray(_to_vtk_array(name, values, P.shape[0], "point"))
+    return ug
+
+
+def write_vtu(grid, path):
+    """Write a vtkUnstructuredGrid as .vtu, inline binary (never appended)."""
+    import os
+    from vtkmodules.vtkIOXML import vtkXMLUnstructuredGridWriter
+
+    d = os.path.dirname(os.path.abspath(path))
+    os.makedirs(d, exist_ok=True)
+    w = vtkXMLUnstructuredGridWriter()
+    w.SetFileName(str(path))
+    w.SetDataModeToBinary()      # inline binary; appended mode reads back empty here
+    w.SetInputData(grid)
+    if w.Write() != 1:
+        raise IOError("failed to write %s" % path)
+    return grid
 
 
 # ---------------------------------------------------------------------------

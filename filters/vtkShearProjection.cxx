@@ -22,6 +22,7 @@
 #include "vtkInformation.h"
 #include "vtkInformationVector.h"
 #include "vtkIntArray.h"
+#include "vtkMath.h"
 #include "vtkMultiBlockDataSet.h"
 #include "vtkNew.h"
 #include "vtkObjectFactory.h"
@@ -34,6 +35,7 @@
 #include "vtkUnstructuredGrid.h"
 
 #include <cmath>
+#include <algorithm>
 #include <limits>
 #include <sstream>
 #include <vector>
@@ -60,31 +62,61 @@ struct Boundary
   std::vector<vtkIdType> Cell;                 ///< adjacent cell of each boundary face
   vtkSmartPointer<vtkDataSet> Mesh;            ///< private copy for neighbour queries
 
-  bool Matches(vtkDataSet* ds) const
+  double Bounds[6] = { 0, 0, 0, 0, 0, 0 };
+
+  /// What identifies a mesh: its points and cells objects (explicit meshes)
+  /// and their modification times, or, for implicit ones (image data,
+  /// structured grids), counts and bounds. Arrays do not enter.
+  struct Key
+  {
+    const void* Points;
+    vtkMTimeType PointsTime;
+    const void* Cells;
+    vtkMTimeType CellsTime;
+  };
+  static Key KeyOf(vtkDataSet* ds)
   {
     auto* ps = vtkPointSet::SafeDownCast(ds);
     auto* ug = vtkUnstructuredGrid::SafeDownCast(ds);
-    const void* pts = ps && ps->GetPoints() ? static_cast<const void*>(ps->GetPoints()->GetData())
-                                            : static_cast<const void*>(ds);
-    const vtkMTimeType pt = ps && ps->GetPoints() ? ps->GetPoints()->GetMTime() : ds->GetMTime();
-    const void* cells = ug ? static_cast<const void*>(ug->GetCells()) : static_cast<const void*>(ds);
-    const vtkMTimeType ct = ug ? ug->GetCells()->GetMTime() : ds->GetMTime();
-    return pts == this->Points && pt == this->PointsTime && cells == this->Cells &&
-      ct == this->CellsTime && ds->GetNumberOfPoints() == this->NumPoints &&
-      ds->GetNumberOfCells() == this->NumCells;
+    Key k{ nullptr, 0, nullptr, 0 };
+    if (ps && ps->GetPoints())
+    {
+      k.Points = ps->GetPoints()->GetData();
+      k.PointsTime = ps->GetPoints()->GetMTime();
+    }
+    if (ug && ug->GetCells())
+    {
+      k.Cells = ug->GetCells();
+      k.CellsTime = ug->GetCells()->GetMTime();
+    }
+    return k;
+  }
+
+  bool Matches(vtkDataSet* ds) const
+  {
+    const Key k = KeyOf(ds);
+    double bounds[6];
+    ds->GetBounds(bounds);
+    bool same = k.Points == this->Points && k.PointsTime == this->PointsTime &&
+      k.Cells == this->Cells && k.CellsTime == this->CellsTime &&
+      ds->GetNumberOfPoints() == this->NumPoints && ds->GetNumberOfCells() == this->NumCells;
+    for (int i = 0; i < 6 && same; ++i)
+    {
+      same = bounds[i] == this->Bounds[i];
+    }
+    return same;
   }
 
   void Build(vtkDataSet* ds)
   {
-    auto* ps = vtkPointSet::SafeDownCast(ds);
-    auto* ug = vtkUnstructuredGrid::SafeDownCast(ds);
-    this->Points = ps && ps->GetPoints() ? static_cast<const void*>(ps->GetPoints()->GetData())
-                                         : static_cast<const void*>(ds);
-    this->PointsTime = ps && ps->GetPoints() ? ps->GetPoints()->GetMTime() : ds->GetMTime();
-    this->Cells = ug ? static_cast<const void*>(ug->GetCells()) : static_cast<const void*>(ds);
-    this->CellsTime = ug ? ug->GetCells()->GetMTime() : ds->GetMTime();
+    const Key k = KeyOf(ds);
+    this->Points = k.Points;
+    this->PointsTime = k.PointsTime;
+    this->Cells = k.Cells;
+    this->CellsTime = k.CellsTime;
     this->NumPoints = ds->GetNumberOfPoints();
     this->NumCells = ds->GetNumberOfCells();
+    ds->GetBounds(this->Bounds);
 
     // Geometry only: the extraction must not carry the volume's arrays.
     this->Mesh.TakeReference(ds->NewInstance());
@@ -166,6 +198,7 @@ struct Settings
 struct Counts
 {
   double Faces = 0, Unmatched = 0, OffWall = 0, FellBack = 0, Failed = 0;
+  double NotFaces = 0, Degenerate = 0, Interfaces = 0;
 };
 
 bool Selection(vtkAlgorithm* alg, int index, ArraySelection& sel)
@@ -271,9 +304,13 @@ struct WallFace
 {
   FaceFrame<double> Frame;
   bool Valid = false;
+  bool NotFace = false; ///< a vertex, line or 3D cell among the walls
   int Block = -1;
   vtkIdType Cell = -1;
   double WallVelocity[3] = { 0, 0, 0 };
+  /// Gradient of the wall velocity in the face plane (row-major, du_i/dx_j),
+  /// from corner values; zero without a point-data wall velocity.
+  double WallGradient[9] = { 0, 0, 0, 0, 0, 0, 0, 0, 0 };
 };
 
 /// Work objects reused from face to face (no allocation per face).
@@ -318,6 +355,12 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scrat
     ++counts.OffWall;
     return;
   }
+  // Geometry is known even if the reconstruction below fails.
+  for (int k = 0; k < 3; ++k)
+  {
+    out[3 + k] = n[k];
+  }
+  out[6] = d;
   double rho = s.DensityValue;
   if (vb.Density.Valid())
   {
@@ -367,10 +410,12 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scrat
   };
 
   double tau[3] = { NaN, NaN, NaN };
+  bool alongWall = false; // the method took only the wall-normal derivative
   switch (s.Method)
   {
     case vtkShearProjection::NEAR_WALL_DIFFERENCE:
       NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
+      alongWall = true;
       break;
     case vtkShearProjection::GRADIENT_TENSOR:
     {
@@ -402,11 +447,17 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scrat
       std::vector<double>& us = work.Us;
       ds.assign(1, d);
       us.assign(uP, uP + 3);
+      // Only neighbours stacked off the wall: further out (d > 1.2 d_P) and
+      // mostly along the normal. Neighbours beside the cell sample the
+      // profile of another wall position (a developing layer, a curved
+      // wall) at nearly the same distance and would set the curvature.
       for (std::size_t j = 0; j < xk.size() / 3; ++j)
       {
         const double off[3] = { xk[3 * j] - xf[0], xk[3 * j + 1] - xf[1], xk[3 * j + 2] - xf[2] };
         const double dj = Dot(off, n);
-        if (dj > 0)
+        double side[3];
+        SplitNormalTangential(off, n, side);
+        if (dj > 1.2 * d && Norm(side) <= 0.5 * dj)
         {
           ds.push_back(dj);
           us.insert(us.end(), &uk[3 * j], &uk[3 * j] + 3);
@@ -419,6 +470,7 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scrat
         ++counts.FellBack; // no distinct distances: the near-wall difference
         NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
       }
+      alongWall = true;
       break;
     }
     case vtkShearProjection::WALL_LAW:
@@ -439,6 +491,25 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scrat
         tau[k] = scale * ut[k];
       }
       break;
+    }
+  }
+  if (alongWall)
+  {
+    // The other half of tau n: mu (G^T n)_t, the derivative of the normal
+    // velocity along the wall. At the wall it is the wall velocity's: zero
+    // for stationary and translating walls, half the shear on a spinning
+    // cylinder. Known only where the wall velocity is point data.
+    const double* W = face.WallGradient;
+    double gtn[3];
+    for (int j = 0; j < 3; ++j)
+    {
+      gtn[j] = W[j] * n[0] + W[3 + j] * n[1] + W[6 + j] * n[2];
+    }
+    double along[3];
+    SplitNormalTangential(gtn, n, along);
+    for (int k = 0; k < 3; ++k)
+    {
+      tau[k] += muEff * along[k];
     }
   }
   if (!AllFinite(tau, 3))
@@ -472,6 +543,7 @@ void FaceFrames(vtkDataSet* wall, std::vector<WallFace>& faces)
     I buffer[4];
     const I* ids = nullptr;
     const int n = topo.Corners(c, ids, buffer);
+    faces[c].NotFace = n == 0;
     faces[c].Valid = n > 0 && pts && ComputeFaceFrame<double>(pts, ids, n, faces[c].Frame) == FaceStatus::Ok;
   }
 }
@@ -761,34 +833,101 @@ int vtkShearProjection::RequestData(
     // Match faces to cells: directly for extracted boundaries, by centroid otherwise.
     double unmatched = 0;
     auto corners = vtkSmartPointer<vtkIdList>::New();
+    auto found = vtkSmartPointer<vtkIdList>::New();
+    bool pickFluidSide = false;
+    const bool wallFloat = MakePointView(out).IsFloat;
     for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
     {
       WallFace& face = wb.Faces[f];
-      if (!face.Valid)
+      if (face.NotFace)
       {
-        ++unmatched;
+        ++counts.NotFaces;
         continue;
       }
+      if (!face.Valid)
+      {
+        ++counts.Degenerate;
+        continue;
+      }
+      // Match within 1e-4 of the face size, widened by the rounding of the
+      // coordinates (float points far from the origin).
+      const double* c = face.Frame.Centroid;
+      const double reach = std::max(std::abs(c[0]), std::max(std::abs(c[1]), std::abs(c[2])));
+      const double tol = 1e-4 * std::sqrt(face.Frame.Area) + (wallFloat ? 1e-6 : 1e-13) * reach;
       if (!wallsIn)
       {
         face.Block = static_cast<int>(w);
         face.Cell = volume[w].Index->Cell[f];
+        // A face that another volume block also has is an interface, not a wall.
+        for (std::size_t v = 0; v < volume.size() && face.Cell >= 0; ++v)
+        {
+          double d2;
+          if (v != w && volume[v].Index->Near->FindClosestPointWithinRadius(tol, c, d2) >= 0)
+          {
+            face.Cell = -1;
+            ++counts.Interfaces;
+          }
+        }
+        if (face.Cell < 0)
+        {
+          continue;
+        }
       }
       else
       {
-        double best = VTK_DOUBLE_MAX;
-        const double tol = 1e-4 * std::sqrt(face.Frame.Area);
+        // Every boundary face at this centroid, over all volume blocks. Two
+        // (the sides of a zero-thickness baffle) are told apart by the
+        // wall's stored orientation, taken to point out of the fluid (as
+        // solvers export walls); one is taken as it is.
+        struct Candidate
+        {
+          int Block;
+          vtkIdType Cell;
+          double Distance2;
+        };
+        std::vector<Candidate> candidates;
         for (std::size_t v = 0; v < volume.size(); ++v)
         {
-          double d2;
-          const vtkIdType id = volume[v].Index->Near->FindClosestPointWithinRadius(
-            tol, face.Frame.Centroid, d2);
-          if (id >= 0 && d2 < best)
+          volume[v].Index->Near->FindPointsWithinRadius(tol, c, found);
+          for (vtkIdType j = 0; j < found->GetNumberOfIds(); ++j)
           {
-            best = d2;
-            face.Block = static_cast<int>(v);
-            face.Cell = volume[v].Index->Cell[id];
+            const vtkIdType id = found->GetId(j);
+            double x[3];
+            volume[v].Index->Near->GetDataSet()->GetPoint(id, x);
+            const double d2 = vtkMath::Distance2BetweenPoints(x, c);
+            candidates.push_back({ static_cast<int>(v), volume[v].Index->Cell[id], d2 });
           }
+        }
+        const Candidate* pick = nullptr;
+        for (const Candidate& cand : candidates)
+        {
+          bool better = !pick || cand.Distance2 < pick->Distance2;
+          if (candidates.size() > 1 && cand.Cell >= 0)
+          {
+            vtkDataSet* mesh = volume[cand.Block].Index->Mesh;
+            mesh->GetCellPoints(cand.Cell, corners);
+            double xP[3];
+            CellCentre(mesh, corners, xP);
+            const double toP[3] = { xP[0] - c[0], xP[1] - c[1], xP[2] - c[2] };
+            const bool fluidSide = Dot(toP, face.Frame.Normal) < 0;
+            if (pick && fluidSide != pickFluidSide)
+            {
+              better = fluidSide;
+            }
+            if (better)
+            {
+              pickFluidSide = fluidSide;
+            }
+          }
+          if (better)
+          {
+            pick = &cand;
+          }
+        }
+        if (pick)
+        {
+          face.Block = pick->Block;
+          face.Cell = pick->Cell;
         }
       }
       if (face.Cell < 0)
@@ -812,6 +951,31 @@ int vtkShearProjection::RequestData(
             sum += wallVelocity.Get(corners->GetId(j), k);
           }
           face.WallVelocity[k] = sum / static_cast<double>(corners->GetNumberOfIds());
+        }
+        if (wallVelocity.OnPoints)
+        {
+          // Green-Gauss over the face polygon: grad_s u = (1/A) sum over edges
+          // of the edge-mean value times the in-plane edge normal e x n.
+          const vtkIdType nc = corners->GetNumberOfIds();
+          for (vtkIdType j = 0; j < nc; ++j)
+          {
+            const vtkIdType a = corners->GetId(j);
+            const vtkIdType b = corners->GetId((j + 1) % nc);
+            double pa[3], pb[3];
+            out->GetPoint(a, pa);
+            out->GetPoint(b, pb);
+            const double e[3] = { pb[0] - pa[0], pb[1] - pa[1], pb[2] - pa[2] };
+            double en[3];
+            Cross(e, face.Frame.Normal, en);
+            for (int i = 0; i < 3; ++i)
+            {
+              const double mean = 0.5 * (wallVelocity.Get(a, i) + wallVelocity.Get(b, i));
+              for (int k = 0; k < 3; ++k)
+              {
+                face.WallGradient[3 * i + k] += mean * en[k] / face.Frame.Area;
+              }
+            }
+          }
         }
       }
     }
@@ -860,9 +1024,17 @@ int vtkShearProjection::RequestData(
     }
   }
 
-  double global[5] = { counts.Faces, counts.Unmatched, counts.OffWall, counts.FellBack,
-    counts.Failed };
-  GlobalSum(global, 5);
+  double global[8] = { counts.Faces, counts.Unmatched, counts.OffWall, counts.FellBack,
+    counts.Failed, counts.NotFaces, counts.Degenerate, counts.Interfaces };
+  GlobalSum(global, 8);
+  if (global[5] + global[6] + global[7] > 0 && ProcessRank() == 0)
+  {
+    vtkWarningMacro("Shear Projection: "
+      << static_cast<vtkIdType>(global[5]) << " wall cells that are not faces (vertices, lines), "
+      << static_cast<vtkIdType>(global[6]) << " degenerate wall faces (zero area) and "
+      << static_cast<vtkIdType>(global[7])
+      << " faces shared by two volume blocks (interfaces, not walls) carry NaN.");
+  }
   if (global[1] > 0)
   {
     vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[1]) << " of "

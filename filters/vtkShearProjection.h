@@ -26,12 +26,24 @@
  *   over the cell's face neighbours with the wall velocity as a constraint
  *   (second order in the interior; first order at the wall in general);
  * - WALL_FIT: least-squares fit of u_t(d) = a d + b d^2 (no slip built in)
- *   over the adjacent cell and its face neighbours; tau_w = mu_eff a; exact
- *   for profiles quadratic in the wall distance (plane Poiseuille);
+ *   over the adjacent cell and the face neighbours stacked off the wall
+ *   (further out, mostly along the normal); tau_w = mu_eff a; exact for
+ *   profiles quadratic in the distance to the face. Without a stacked
+ *   neighbour (typical of tetrahedra) it falls back to the near-wall
+ *   difference and says how often;
  * - WALL_LAW: Spalding's law of the wall (Spalding 1961), inverted for the
  *   friction velocity from the adjacent cell's tangential speed;
  *   tau_w = rho u_tau^2 along that velocity. For wall-function meshes
  *   (y+ > 30); WallLawKappa (0.41) and WallLawB (5.0) are common practice.
+ *
+ * The near-wall difference and the wall fit take the wall-normal derivative
+ * of the tangential velocity; the other part of tau n, mu times the
+ * derivative of the normal velocity along the wall, is that of the wall
+ * velocity at the wall. It vanishes on stationary and translating walls and
+ * is half the shear on a spinning cylinder; it is added from the wall
+ * velocity's gradient in each face (Green-Gauss over the corners) when the
+ * WallVelocity array is point data. With a cell-data wall velocity on a
+ * rotating curved wall use GRADIENT_TENSOR.
  *
  * Outputs, on the wall faces (cell data, double): `Wall Shear Stress` (Pa),
  * `Wall Normal` (into the fluid, decided by the adjacent cell), `Wall

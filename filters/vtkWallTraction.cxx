@@ -611,9 +611,13 @@ int vtkWallTraction::RequestData(
 
   if (ProcessRank() == 0)
   {
-    if (global[8] == 0)
+    if (global[8] == 0 && global[3] + global[4] + global[5] == 0)
     {
       vtkWarningMacro("The input holds no wall faces: all loads are zero.");
+    }
+    else if (global[8] == 0)
+    {
+      vtkWarningMacro("No wall face carries a load: every face was skipped (counts below).");
     }
     std::ostringstream os;
     if (global[3] > 0)

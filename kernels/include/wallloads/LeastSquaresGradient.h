@@ -32,6 +32,7 @@
  */
 #include "wallloads/Vector3.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdint>
 #include <limits>
@@ -91,6 +92,8 @@ GradientStatus LeastSquaresGradient(const T x0[3], const T u0[3], const T* xk, c
   T a00 = 0, a01 = 0, a02 = 0, a11 = 0, a12 = 0, a22 = 0;
   T B[3][3] = { { 0, 0, 0 }, { 0, 0, 0 }, { 0, 0, 0 } };
   int rows = 0;
+  T weights = 0;
+  T reach = std::max(std::abs(x0[0]), std::max(std::abs(x0[1]), std::abs(x0[2])));
   auto addRow = [&](const T* x, const T* u, T w) {
     if (!(w >= T(0)) || !std::isfinite(w) || !AllFinite(x, 3) || !AllFinite(u, 3))
     {
@@ -113,6 +116,8 @@ GradientStatus LeastSquaresGradient(const T x0[3], const T u0[3], const T* xk, c
       B[i][2] += du[i] * wx[2];
     }
     rows += w > T(0) ? 1 : 0;
+    weights += w;
+    reach = std::max(reach, std::max(std::abs(x[0]), std::max(std::abs(x[1]), std::abs(x[2]))));
     return true;
   };
   for (int k = 0; k < numNeighbours; ++k)
@@ -136,6 +141,17 @@ GradientStatus LeastSquaresGradient(const T x0[3], const T u0[3], const T* xk, c
   if (!std::isfinite(a00) || !std::isfinite(a11) || !std::isfinite(a22))
   {
     return fail(GradientStatus::BadInput);
+  }
+  // A direction whose spread is at the rounding level of the coordinates
+  // (a mesh one cell thick, whose only offset across is round-off) carries
+  // no information; Jacobi scaling would make it look well conditioned.
+  {
+    const T floor = T(64) * std::numeric_limits<T>::epsilon() * reach;
+    const T least = floor * floor * weights;
+    if (!(a00 > least) || !(a11 > least) || !(a22 > least))
+    {
+      return fail(GradientStatus::Degenerate);
+    }
   }
   // Jacobi scaling: S = D^-1/2 A D^-1/2 has unit diagonal.
   const T s[3] = { T(1) / std::sqrt(a00), T(1) / std::sqrt(a11), T(1) / std::sqrt(a22) };

@@ -1035,15 +1035,16 @@ int vtkShearProjection::RequestData(
       << static_cast<vtkIdType>(global[7])
       << " faces shared by two volume blocks (interfaces, not walls) carry NaN.");
   }
-  if (global[1] > 0)
+  if (global[1] > 0 && (ProcessRank() == 0 || counts.Unmatched > 0))
   {
+    // Rank 0 gives the global count; a rank that holds unmatched faces names its blocks.
     vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[1]) << " of "
                                          << static_cast<vtkIdType>(global[0])
                                          << " wall faces match no boundary face of the volume "
                                             "(walls that do not touch it, or held by another rank) "
                                             "and carry NaN." << unmatchedReport.str());
   }
-  if (global[2] + global[4] > 0)
+  if (global[2] + global[4] > 0 && ProcessRank() == 0)
   {
     vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[2])
                                          << " faces whose adjacent cell centre is not off the wall "

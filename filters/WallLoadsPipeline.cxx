@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #include "WallLoadsPipeline.h"
 
+#include "vtkAlgorithm.h"
 #include "vtkCellData.h"
 #include "vtkCommunicator.h"
 #include "vtkCompositeDataSet.h"
@@ -125,6 +126,44 @@ vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int w
     return nullptr;
   }
   return array;
+}
+
+ArraySelection SelectedArray(vtkAlgorithm* alg, int index)
+{
+  ArraySelection sel;
+  vtkInformation* info = alg->GetInputArrayInformation(index);
+  if (!info || !info->Has(vtkDataObject::FIELD_NAME()) ||
+    IsUnsetArrayName(info->Get(vtkDataObject::FIELD_NAME())))
+  {
+    return sel;
+  }
+  sel.Name = info->Get(vtkDataObject::FIELD_NAME());
+  sel.OnPoints = info->Has(vtkDataObject::FIELD_ASSOCIATION()) &&
+    info->Get(vtkDataObject::FIELD_ASSOCIATION()) == vtkDataObject::FIELD_ASSOCIATION_POINTS;
+  return sel;
+}
+
+std::string LeafName(vtkDataObjectTreeIterator* it)
+{
+  if (it->HasCurrentMetaData() && it->GetCurrentMetaData()->Has(vtkCompositeDataSet::NAME()))
+  {
+    const std::string name = it->GetCurrentMetaData()->Get(vtkCompositeDataSet::NAME());
+    if (!name.empty())
+    {
+      return name;
+    }
+  }
+  return "#" + std::to_string(it->GetCurrentFlatIndex());
+}
+
+double* NewCellDoubleArray(vtkDataSet* out, const char* name, int components)
+{
+  auto a = vtkSmartPointer<vtkDoubleArray>::New();
+  a->SetName(name);
+  a->SetNumberOfComponents(components);
+  a->SetNumberOfTuples(out->GetNumberOfCells());
+  out->GetCellData()->AddArray(a);
+  return a->GetPointer(0);
 }
 
 PointView MakePointView(vtkDataSet* ds)

@@ -15,7 +15,9 @@
 #include <string>
 #include <vector>
 
+class vtkAlgorithm;
 class vtkDataObject;
+class vtkDataObjectTreeIterator;
 class vtkDataSet;
 class vtkFieldData;
 
@@ -104,6 +106,15 @@ struct ArraySelection
   bool OnPoints = false;
   bool Set() const { return !this->Name.empty(); }
 };
+
+/// The array chosen with SetInputArrayToProcess(index, ...); unset if none.
+ArraySelection SelectedArray(vtkAlgorithm* alg, int index);
+
+/// The block name of the iterator's current leaf, or "#<flat index>".
+std::string LeafName(vtkDataObjectTreeIterator* it);
+
+/// A new double cell array of the dataset's cell count, added to it.
+double* NewCellDoubleArray(vtkDataSet* out, const char* name, int components);
 
 /**
  * Find a selected array on a dataset. On failure, `error` names the array,

@@ -265,15 +265,8 @@ int vtkLoadIntegration::RequestData(
     vtkErrorMacro("DragDirection and LiftDirection must be non-zero and not parallel.");
     return 0;
   }
-  ArraySelection regionSel;
-  {
-    vtkInformation* info = this->GetInputArrayInformation(REGION_ARRAY);
-    if (info && info->Has(vtkDataObject::FIELD_NAME()) &&
-      !IsUnsetArrayName(info->Get(vtkDataObject::FIELD_NAME())))
-    {
-      regionSel.Name = info->Get(vtkDataObject::FIELD_NAME());
-    }
-  }
+  ArraySelection regionSel = SelectedArray(this, REGION_ARRAY);
+  regionSel.OnPoints = false; // regions are cells
 
   std::vector<Leaf> leaves;
   std::vector<std::string> regionNames;

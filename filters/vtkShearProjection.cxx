@@ -201,20 +201,6 @@ struct Counts
   double NotFaces = 0, Degenerate = 0, Interfaces = 0;
 };
 
-bool Selection(vtkAlgorithm* alg, int index, ArraySelection& sel)
-{
-  vtkInformation* info = alg->GetInputArrayInformation(index);
-  sel = ArraySelection();
-  if (!info || !info->Has(vtkDataObject::FIELD_NAME()) ||
-    IsUnsetArrayName(info->Get(vtkDataObject::FIELD_NAME())))
-  {
-    return false;
-  }
-  sel.Name = info->Get(vtkDataObject::FIELD_NAME());
-  sel.OnPoints = info->Has(vtkDataObject::FIELD_ASSOCIATION()) &&
-    info->Get(vtkDataObject::FIELD_ASSOCIATION()) == vtkDataObject::FIELD_ASSOCIATION_POINTS;
-  return true;
-}
 
 bool IsVolume(vtkDataSet* ds)
 {
@@ -246,15 +232,7 @@ void ListDataSets(vtkDataObject* obj, std::vector<std::pair<vtkDataSet*, std::st
   it->TraverseSubTreeOn();
   for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
   {
-    std::string name;
-    if (it->HasCurrentMetaData() && it->GetCurrentMetaData()->Has(vtkCompositeDataSet::NAME()))
-    {
-      name = it->GetCurrentMetaData()->Get(vtkCompositeDataSet::NAME());
-    }
-    if (name.empty())
-    {
-      name = "#" + std::to_string(it->GetCurrentFlatIndex());
-    }
+    const std::string name = LeafName(it);
     if (auto* ds = vtkDataSet::SafeDownCast(it->GetCurrentDataObject()))
     {
       out.emplace_back(ds, name);
@@ -548,15 +526,6 @@ void FaceFrames(vtkDataSet* wall, std::vector<WallFace>& faces)
   }
 }
 
-double* NewArray(vtkDataSet* out, const char* name, int comps)
-{
-  auto a = vtkSmartPointer<vtkDoubleArray>::New();
-  a->SetName(name);
-  a->SetNumberOfComponents(comps);
-  a->SetNumberOfTuples(out->GetNumberOfCells());
-  out->GetCellData()->AddArray(a);
-  return a->GetPointer(0);
-}
 } // namespace
 
 //------------------------------------------------------------------------------
@@ -641,12 +610,12 @@ int vtkShearProjection::RequestData(
   vtkDataObject* output = vtkDataObject::GetData(outputVector, 0);
 
   Settings s;
-  Selection(this, VELOCITY_ARRAY, s.Velocity);
-  Selection(this, WALL_VELOCITY_ARRAY, s.WallVelocity);
-  Selection(this, VELOCITY_GRADIENT_ARRAY, s.Gradient);
-  Selection(this, VISCOSITY_ARRAY, s.Viscosity);
-  Selection(this, TURBULENT_VISCOSITY_ARRAY, s.TurbulentViscosity);
-  Selection(this, DENSITY_ARRAY, s.Density);
+  s.Velocity = SelectedArray(this, VELOCITY_ARRAY);
+  s.WallVelocity = SelectedArray(this, WALL_VELOCITY_ARRAY);
+  s.Gradient = SelectedArray(this, VELOCITY_GRADIENT_ARRAY);
+  s.Viscosity = SelectedArray(this, VISCOSITY_ARRAY);
+  s.TurbulentViscosity = SelectedArray(this, TURBULENT_VISCOSITY_ARRAY);
+  s.Density = SelectedArray(this, DENSITY_ARRAY);
   s.Method = this->Method;
   s.ViscosityValue = this->Viscosity;
   s.Kinematic = this->ViscosityKind == 1;
@@ -760,9 +729,7 @@ int vtkShearProjection::RequestData(
         wb.Out.TakeReference(leaf->NewInstance());
         wb.Out->ShallowCopy(leaf);
         outTree->SetDataSet(it, wb.Out);
-        wb.Name = it->HasCurrentMetaData() && it->GetCurrentMetaData()->Has(vtkCompositeDataSet::NAME())
-          ? it->GetCurrentMetaData()->Get(vtkCompositeDataSet::NAME())
-          : "#" + std::to_string(it->GetCurrentFlatIndex());
+        wb.Name = LeafName(it);
         walls.push_back(wb);
       }
     }
@@ -987,11 +954,11 @@ int vtkShearProjection::RequestData(
     counts.Unmatched += unmatched;
     counts.Faces += static_cast<double>(out->GetNumberOfCells());
 
-    double* tau = NewArray(out, "Wall Shear Stress", 3);
-    double* normal = NewArray(out, names::WallNormal, 3);
-    double* distance = NewArray(out, "Wall Distance", 1);
-    double* utau = NewArray(out, "Friction Velocity", 1);
-    double* yplus = NewArray(out, "y+", 1);
+    double* tau = NewCellDoubleArray(out, "Wall Shear Stress", 3);
+    double* normal = NewCellDoubleArray(out, names::WallNormal, 3);
+    double* distance = NewCellDoubleArray(out, "Wall Distance", 1);
+    double* utau = NewCellDoubleArray(out, "Friction Velocity", 1);
+    double* yplus = NewCellDoubleArray(out, "y+", 1);
     auto regimes = vtkSmartPointer<vtkIntArray>::New();
     regimes->SetName("Near-Wall Regime");
     regimes->SetNumberOfTuples(out->GetNumberOfCells());

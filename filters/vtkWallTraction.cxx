@@ -263,15 +263,6 @@ struct FaceLoop
   void Reduce() {}
 };
 
-double* NewCellArray(vtkDataSet* out, const char* name, int comps)
-{
-  auto a = vtkSmartPointer<vtkDoubleArray>::New();
-  a->SetName(name);
-  a->SetNumberOfComponents(comps);
-  a->SetNumberOfTuples(out->GetNumberOfCells());
-  out->GetCellData()->AddArray(a);
-  return a->GetPointer(0);
-}
 
 template <typename I, typename P>
 void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, Tally& tally)
@@ -313,24 +304,6 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
   }
 }
 
-bool SelectionFromAlgorithm(vtkAlgorithm* alg, int index, ArraySelection& sel)
-{
-  vtkInformation* info = alg->GetInputArrayInformation(index);
-  sel = ArraySelection();
-  if (!info || !info->Has(vtkDataObject::FIELD_NAME()))
-  {
-    return false;
-  }
-  const char* name = info->Get(vtkDataObject::FIELD_NAME());
-  if (IsUnsetArrayName(name))
-  {
-    return false;
-  }
-  sel.Name = name;
-  sel.OnPoints = info->Has(vtkDataObject::FIELD_ASSOCIATION()) &&
-    info->Get(vtkDataObject::FIELD_ASSOCIATION()) == vtkDataObject::FIELD_ASSOCIATION_POINTS;
-  return true;
-}
 
 /// Process one leaf; returns false with `error` set on bad input.
 bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::string& blockName,
@@ -340,9 +313,9 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   {
     // An empty piece (common on some ranks) needs no arrays; it gets the
     // output arrays, empty, so that every piece has the same arrays.
-    NewCellArray(out, names::FaceArea, 1);
-    NewCellArray(out, names::PressureForce, 3);
-    NewCellArray(out, names::ViscousForce, 3);
+    NewCellDoubleArray(out, names::FaceArea, 1);
+    NewCellDoubleArray(out, names::PressureForce, 3);
+    NewCellDoubleArray(out, names::ViscousForce, 3);
     if (!s.AllArrays)
     {
       return true;
@@ -350,18 +323,18 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
     for (const char* name : { names::WallNormal, names::PressureTraction, names::ViscousTraction,
            names::Traction, names::Force })
     {
-      NewCellArray(out, name, 3);
+      NewCellDoubleArray(out, name, 3);
     }
     for (const char* name : { names::NormalViscousStress, names::DirectionalTraction })
     {
-      NewCellArray(out, name, 1);
+      NewCellDoubleArray(out, name, 1);
     }
     if (s.DynamicPressure > 0)
     {
-      NewCellArray(out, names::PressureCoefficient, 1);
+      NewCellDoubleArray(out, names::PressureCoefficient, 1);
       if (s.ShearSource != vtkWallTraction::NO_SHEAR)
       {
-        NewCellArray(out, names::SkinFrictionCoefficient, 1);
+        NewCellDoubleArray(out, names::SkinFrictionCoefficient, 1);
       }
     }
     return true;
@@ -400,25 +373,25 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
 
   Outputs o;
   o.Full = s.AllArrays;
-  o.Area = NewCellArray(out, names::FaceArea, 1);
-  o.ForceP = NewCellArray(out, names::PressureForce, 3);
-  o.ForceV = NewCellArray(out, names::ViscousForce, 3);
+  o.Area = NewCellDoubleArray(out, names::FaceArea, 1);
+  o.ForceP = NewCellDoubleArray(out, names::PressureForce, 3);
+  o.ForceV = NewCellDoubleArray(out, names::ViscousForce, 3);
   if (o.Full)
   {
-    o.Normal = NewCellArray(out, names::WallNormal, 3);
-    o.TractionP = NewCellArray(out, names::PressureTraction, 3);
-    o.TractionV = NewCellArray(out, names::ViscousTraction, 3);
-    o.Traction = NewCellArray(out, names::Traction, 3);
-    o.Force = NewCellArray(out, names::Force, 3);
-    o.NormalV = NewCellArray(out, names::NormalViscousStress, 1);
-    o.Directional = NewCellArray(out, names::DirectionalTraction, 1);
+    o.Normal = NewCellDoubleArray(out, names::WallNormal, 3);
+    o.TractionP = NewCellDoubleArray(out, names::PressureTraction, 3);
+    o.TractionV = NewCellDoubleArray(out, names::ViscousTraction, 3);
+    o.Traction = NewCellDoubleArray(out, names::Traction, 3);
+    o.Force = NewCellDoubleArray(out, names::Force, 3);
+    o.NormalV = NewCellDoubleArray(out, names::NormalViscousStress, 1);
+    o.Directional = NewCellDoubleArray(out, names::DirectionalTraction, 1);
   }
   if (s.DynamicPressure > 0 && o.Full)
   {
-    o.Cp = NewCellArray(out, names::PressureCoefficient, 1);
+    o.Cp = NewCellDoubleArray(out, names::PressureCoefficient, 1);
     if (s.ShearSource != vtkWallTraction::NO_SHEAR)
     {
-      o.Cf = NewCellArray(out, names::SkinFrictionCoefficient, 1);
+      o.Cf = NewCellDoubleArray(out, names::SkinFrictionCoefficient, 1);
     }
   }
   if (!inputs.Points.Data)
@@ -492,12 +465,12 @@ int vtkWallTraction::RequestData(
   }
 
   Settings s;
-  SelectionFromAlgorithm(this, PRESSURE_ARRAY, s.Pressure);
-  SelectionFromAlgorithm(this, DENSITY_ARRAY, s.DensityArray);
-  SelectionFromAlgorithm(this, WALL_SHEAR_STRESS_ARRAY, s.WallShearStress);
-  SelectionFromAlgorithm(this, VELOCITY_GRADIENT_ARRAY, s.VelocityGradient);
-  SelectionFromAlgorithm(this, VISCOSITY_ARRAY, s.ViscosityArray);
-  SelectionFromAlgorithm(this, TURBULENT_VISCOSITY_ARRAY, s.TurbulentViscosity);
+  s.Pressure = SelectedArray(this, PRESSURE_ARRAY);
+  s.DensityArray = SelectedArray(this, DENSITY_ARRAY);
+  s.WallShearStress = SelectedArray(this, WALL_SHEAR_STRESS_ARRAY);
+  s.VelocityGradient = SelectedArray(this, VELOCITY_GRADIENT_ARRAY);
+  s.ViscosityArray = SelectedArray(this, VISCOSITY_ARRAY);
+  s.TurbulentViscosity = SelectedArray(this, TURBULENT_VISCOSITY_ARRAY);
   s.PressurePerUnitDensity = this->PressureKind == PER_UNIT_DENSITY;
   s.ShearPerUnitDensity = this->WallShearStressKind == PER_UNIT_DENSITY;
   s.Kinematic = this->ViscosityKind == PER_UNIT_DENSITY;
@@ -555,15 +528,7 @@ int vtkWallTraction::RequestData(
       copy.TakeReference(leaf->NewInstance());
       copy->ShallowCopy(leaf);
       outTree->SetDataSet(it, copy);
-      std::string name;
-      if (it->HasCurrentMetaData() && it->GetCurrentMetaData()->Has(vtkCompositeDataSet::NAME()))
-      {
-        name = it->GetCurrentMetaData()->Get(vtkCompositeDataSet::NAME());
-      }
-      if (name.empty())
-      {
-        name = "#" + std::to_string(it->GetCurrentFlatIndex());
-      }
+      const std::string name = LeafName(it);
       ok = ProcessLeaf(s, leaf, copy, name, tally, error);
     }
   }

@@ -24,13 +24,34 @@ typedef XML_Parser (*create_mm_fn)(
   const XML_Char*, const XML_Memory_Handling_Suite*, const XML_Char*);
 typedef XML_Bool (*deferral_fn)(XML_Parser, XML_Bool);
 
+/* The real expat function. Usually the next definition in the global scope;
+ * when expat came in with a library opened locally (RTLD_LOCAL) it is not
+ * there, so ask libexpat itself (already loaded, or loaded now). */
+static void* real_symbol(const char* name)
+{
+  void* f = dlsym(RTLD_NEXT, name);
+  if (!f)
+  {
+    void* lib = dlopen("libexpat.so.1", RTLD_NOW | RTLD_NOLOAD);
+    if (!lib)
+    {
+      lib = dlopen("libexpat.so.1", RTLD_NOW);
+    }
+    if (lib)
+    {
+      f = dlsym(lib, name);
+    }
+  }
+  return f;
+}
+
 static XML_Parser no_deferral(XML_Parser parser)
 {
   static deferral_fn set = 0;
   static int looked = 0;
   if (!looked)
   {
-    set = (deferral_fn)dlsym(RTLD_NEXT, "XML_SetReparseDeferralEnabled");
+    set = (deferral_fn)real_symbol("XML_SetReparseDeferralEnabled");
     looked = 1;
   }
   if (parser && set)
@@ -45,9 +66,9 @@ XML_Parser XML_ParserCreate(const XML_Char* encoding)
   static create_fn real = 0;
   if (!real)
   {
-    real = (create_fn)dlsym(RTLD_NEXT, "XML_ParserCreate");
+    real = (create_fn)real_symbol("XML_ParserCreate");
   }
-  return no_deferral(real(encoding));
+  return real ? no_deferral(real(encoding)) : 0;
 }
 
 XML_Parser XML_ParserCreateNS(const XML_Char* encoding, XML_Char separator)
@@ -55,9 +76,9 @@ XML_Parser XML_ParserCreateNS(const XML_Char* encoding, XML_Char separator)
   static create_ns_fn real = 0;
   if (!real)
   {
-    real = (create_ns_fn)dlsym(RTLD_NEXT, "XML_ParserCreateNS");
+    real = (create_ns_fn)real_symbol("XML_ParserCreateNS");
   }
-  return no_deferral(real(encoding, separator));
+  return real ? no_deferral(real(encoding, separator)) : 0;
 }
 
 XML_Parser XML_ParserCreate_MM(
@@ -66,7 +87,7 @@ XML_Parser XML_ParserCreate_MM(
   static create_mm_fn real = 0;
   if (!real)
   {
-    real = (create_mm_fn)dlsym(RTLD_NEXT, "XML_ParserCreate_MM");
+    real = (create_mm_fn)real_symbol("XML_ParserCreate_MM");
   }
-  return no_deferral(real(encoding, memsuite, separator));
+  return real ? no_deferral(real(encoding, memsuite, separator)) : 0;
 }

@@ -379,6 +379,18 @@ int ProcessCount()
   return controller ? controller->GetNumberOfProcesses() : 1;
 }
 
+void ReportAgreedFailure(vtkObject* self, const std::string& localError)
+{
+  if (!localError.empty())
+  {
+    vtkErrorWithObjectMacro(self, << localError);
+  }
+  else if (ProcessRank() == 0)
+  {
+    vtkErrorWithObjectMacro(self, "Bad input on another rank (see its message); no output.");
+  }
+}
+
 void SetFieldValue(vtkFieldData* fd, const char* name, const double* values, int numComponents)
 {
   auto array = vtkSmartPointer<vtkDoubleArray>::New();

@@ -20,6 +20,7 @@ class vtkDataObject;
 class vtkDataObjectTreeIterator;
 class vtkDataSet;
 class vtkFieldData;
+class vtkObject;
 
 namespace wallloads
 {
@@ -155,6 +156,26 @@ PointView MakePointView(vtkDataSet* ds);
 
 /// Whether the face connectivity of `ds` is stored with 64-bit ids.
 bool FacesUse64BitIds(vtkDataSet* ds);
+
+/**
+ * Call `fn(IdType{}, PointType{})` with the connectivity width of `ds`
+ * (vtkTypeInt32 or vtkTypeInt64) and its point type (float or double), so
+ * that face loops are compiled for each storage instead of branching per
+ * value: `DispatchFaces(ds, [&](auto id, auto pt) { Loop<decltype(id),
+ * decltype(pt)>(...); })`.
+ */
+template <typename Fn>
+void DispatchFaces(vtkDataSet* ds, bool floatPoints, Fn&& fn)
+{
+  if (FacesUse64BitIds(ds))
+  {
+    floatPoints ? fn(vtkTypeInt64{}, float{}) : fn(vtkTypeInt64{}, double{});
+  }
+  else
+  {
+    floatPoints ? fn(vtkTypeInt32{}, float{}) : fn(vtkTypeInt32{}, double{});
+  }
+}
 /// Fill the topology view; false if `ds` is neither polydata nor an
 /// unstructured grid (or its storage is not of width I).
 template <typename I>
@@ -221,6 +242,10 @@ void GlobalMin(double* values, int count);
 void GlobalMax(double* values, int count);
 int ProcessRank();
 int ProcessCount();
+
+/// After the ranks agreed that at least one failed: a failing rank gives its
+/// reason, and rank 0 says so when the failure was elsewhere.
+void ReportAgreedFailure(vtkObject* self, const std::string& localError);
 
 /// Helpers to attach results.
 void SetFieldValue(vtkFieldData* fd, const char* name, const double* values, int numComponents);

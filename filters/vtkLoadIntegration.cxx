@@ -346,14 +346,7 @@ int vtkLoadIntegration::RequestData(
   }
   if (agreed[0] > 0)
   {
-    if (!error.empty())
-    {
-      vtkErrorMacro(<< error);
-    }
-    else if (ProcessRank() == 0)
-    {
-      vtkErrorMacro("Bad input on another rank (see its message); no output.");
-    }
+    ReportAgreedFailure(this, error);
     return 0;
   }
 
@@ -390,18 +383,9 @@ int vtkLoadIntegration::RequestData(
       continue;
     }
     inputs[i].RegionBase = regionBase;
-    const bool wide = FacesUse64BitIds(ds);
-    const bool isFloat = inputs[i].Points.IsFloat;
-    if (wide)
-    {
-      isFloat ? SumLeaf<vtkTypeInt64, float>(inputs[i], ds, r0, sums)
-              : SumLeaf<vtkTypeInt64, double>(inputs[i], ds, r0, sums);
-    }
-    else
-    {
-      isFloat ? SumLeaf<vtkTypeInt32, float>(inputs[i], ds, r0, sums)
-              : SumLeaf<vtkTypeInt32, double>(inputs[i], ds, r0, sums);
-    }
+    DispatchFaces(ds, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
+      SumLeaf<decltype(id), decltype(pt)>(inputs[i], ds, r0, sums);
+    });
   }
 
   // One reduction of every running sum and its compensation.

@@ -135,12 +135,13 @@ struct Boundary
     centroids->SetNumberOfPoints(n);
     auto list = vtkSmartPointer<vtkIdList>::New();
     std::vector<double> xyz;
+    std::vector<vtkIdType> local;
     for (vtkIdType f = 0; f < n; ++f)
     {
       this->Cell[f] = ids ? static_cast<vtkIdType>(ids->GetComponent(f, 0)) : -1;
       this->Faces->GetCellPoints(f, list);
       xyz.resize(3 * list->GetNumberOfIds());
-      std::vector<vtkIdType> local(list->GetNumberOfIds());
+      local.resize(list->GetNumberOfIds());
       for (vtkIdType k = 0; k < list->GetNumberOfIds(); ++k)
       {
         this->Faces->GetPoint(list->GetId(k), &xyz[3 * k]);
@@ -214,31 +215,6 @@ bool IsVolume(vtkDataSet* ds)
   return false;
 }
 
-void ListDataSets(vtkDataObject* obj, std::vector<std::pair<vtkDataSet*, std::string>>& out)
-{
-  if (auto* ds = vtkDataSet::SafeDownCast(obj))
-  {
-    out.emplace_back(ds, std::string());
-    return;
-  }
-  auto* tree = vtkDataObjectTree::SafeDownCast(obj);
-  if (!tree)
-  {
-    return;
-  }
-  vtkSmartPointer<vtkDataObjectTreeIterator> it;
-  it.TakeReference(tree->NewTreeIterator());
-  it->VisitOnlyLeavesOn();
-  it->TraverseSubTreeOn();
-  for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
-  {
-    const std::string name = LeafName(it);
-    if (auto* ds = vtkDataSet::SafeDownCast(it->GetCurrentDataObject()))
-    {
-      out.emplace_back(ds, name);
-    }
-  }
-}
 
 /// Value of a volume array at a cell: the cell value or the mean over its points.
 void CellValue(const ArrayView& a, vtkIdList* cellPoints, vtkIdType cell, int comps, double* out)
@@ -629,21 +605,22 @@ int vtkShearProjection::RequestData(
   }
 
   // Volume blocks, their arrays and their (cached) boundaries.
-  std::vector<std::pair<vtkDataSet*, std::string>> all;
-  ListDataSets(volumeIn, all);
+  std::vector<Leaf> all;
+  std::vector<std::string> regionNames; // not used: volume blocks are not regions
+  ListLeaves(volumeIn, all, regionNames);
   std::vector<VolumeBlock> volume;
   std::string error;
   std::vector<Boundary>& cache = this->Cache->Blocks;
   std::vector<Boundary> kept;
-  for (auto& entry : all)
+  for (const Leaf& leaf : all)
   {
-    if (!IsVolume(entry.first))
+    if (!IsVolume(leaf.Data))
     {
       continue; // boundary patches of a composite reader, or empty pieces
     }
     VolumeBlock vb;
-    vb.Data = entry.first;
-    vb.Name = entry.second;
+    vb.Data = leaf.Data;
+    vb.Name = leaf.Name;
     auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
       if (!sel.Set() || !error.empty())
       {
@@ -689,14 +666,7 @@ int vtkShearProjection::RequestData(
   GlobalMax(failed, 1);
   if (failed[0] > 0)
   {
-    if (!error.empty())
-    {
-      vtkErrorMacro(<< error);
-    }
-    else if (ProcessRank() == 0)
-    {
-      vtkErrorMacro("Bad input on another rank (see its message); no output.");
-    }
+    ReportAgreedFailure(this, error);
     return 0;
   }
 
@@ -774,16 +744,10 @@ int vtkShearProjection::RequestData(
   {
     WallBlock& wb = walls[w];
     vtkDataSet* out = wb.Out;
-    if (FacesUse64BitIds(out))
-    {
-      MakePointView(out).IsFloat ? FaceFrames<vtkTypeInt64, float>(out, wb.Faces)
-                                 : FaceFrames<vtkTypeInt64, double>(out, wb.Faces);
-    }
-    else
-    {
-      MakePointView(out).IsFloat ? FaceFrames<vtkTypeInt32, float>(out, wb.Faces)
-                                 : FaceFrames<vtkTypeInt32, double>(out, wb.Faces);
-    }
+    const bool wallFloat = MakePointView(out).IsFloat;
+    DispatchFaces(out, wallFloat, [&](auto id, auto pt) {
+      FaceFrames<decltype(id), decltype(pt)>(out, wb.Faces);
+    });
     // Wall velocity (optional, on the walls).
     ArrayView wallVelocity;
     if (s.WallVelocity.Set() && out->GetNumberOfCells() > 0)
@@ -802,7 +766,6 @@ int vtkShearProjection::RequestData(
     auto corners = vtkSmartPointer<vtkIdList>::New();
     auto found = vtkSmartPointer<vtkIdList>::New();
     bool pickFluidSide = false;
-    const bool wallFloat = MakePointView(out).IsFloat;
     for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
     {
       WallFace& face = wb.Faces[f];

@@ -17,6 +17,8 @@
 #include "vtkInformation.h"
 #include "vtkInformationVector.h"
 #include "vtkObjectFactory.h"
+#include "vtkPolyData.h"
+#include "vtkUnstructuredGrid.h"
 #include "vtkSMPThreadLocal.h"
 #include "vtkSMPTools.h"
 #include "vtkSmartPointer.h"
@@ -67,8 +69,11 @@ struct Outputs
   /// Orientation check: 0 invalid geometry, 1 valid, 2 valid and flipped
   /// against the stored order by the Wall Normal array.
   std::uint8_t* FaceOk = nullptr;
-  double *Normal, *Area, *TractionP, *TractionV, *Traction, *ForceP, *ForceV, *Force, *NormalV,
-    *Directional;
+  double* Area = nullptr;   // always made
+  double* ForceP = nullptr; // always made
+  double* ForceV = nullptr; // always made
+  double *Normal = nullptr, *TractionP = nullptr, *TractionV = nullptr, *Traction = nullptr,
+         *Force = nullptr, *NormalV = nullptr, *Directional = nullptr; // with all arrays
   double* Cp = nullptr;
   double* Cf = nullptr;
   bool Full = true; ///< false: only Face Area, Pressure Force and Viscous Force
@@ -305,6 +310,35 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
 }
 
 
+/// The per-face output arrays of a leaf, added to it.
+Outputs MakeOutputs(const Settings& s, vtkDataSet* out)
+{
+  Outputs o;
+  o.Full = s.AllArrays;
+  o.Area = NewCellDoubleArray(out, names::FaceArea, 1);
+  o.ForceP = NewCellDoubleArray(out, names::PressureForce, 3);
+  o.ForceV = NewCellDoubleArray(out, names::ViscousForce, 3);
+  if (o.Full)
+  {
+    o.Normal = NewCellDoubleArray(out, names::WallNormal, 3);
+    o.TractionP = NewCellDoubleArray(out, names::PressureTraction, 3);
+    o.TractionV = NewCellDoubleArray(out, names::ViscousTraction, 3);
+    o.Traction = NewCellDoubleArray(out, names::Traction, 3);
+    o.Force = NewCellDoubleArray(out, names::Force, 3);
+    o.NormalV = NewCellDoubleArray(out, names::NormalViscousStress, 1);
+    o.Directional = NewCellDoubleArray(out, names::DirectionalTraction, 1);
+  }
+  if (s.DynamicPressure > 0 && o.Full)
+  {
+    o.Cp = NewCellDoubleArray(out, names::PressureCoefficient, 1);
+    if (s.ShearSource != vtkWallTraction::NO_SHEAR)
+    {
+      o.Cf = NewCellDoubleArray(out, names::SkinFrictionCoefficient, 1);
+    }
+  }
+  return o;
+}
+
 /// Process one leaf; returns false with `error` set on bad input.
 bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::string& blockName,
   Tally& tally, std::string& error)
@@ -313,30 +347,7 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   {
     // An empty piece (common on some ranks) needs no arrays; it gets the
     // output arrays, empty, so that every piece has the same arrays.
-    NewCellDoubleArray(out, names::FaceArea, 1);
-    NewCellDoubleArray(out, names::PressureForce, 3);
-    NewCellDoubleArray(out, names::ViscousForce, 3);
-    if (!s.AllArrays)
-    {
-      return true;
-    }
-    for (const char* name : { names::WallNormal, names::PressureTraction, names::ViscousTraction,
-           names::Traction, names::Force })
-    {
-      NewCellDoubleArray(out, name, 3);
-    }
-    for (const char* name : { names::NormalViscousStress, names::DirectionalTraction })
-    {
-      NewCellDoubleArray(out, name, 1);
-    }
-    if (s.DynamicPressure > 0)
-    {
-      NewCellDoubleArray(out, names::PressureCoefficient, 1);
-      if (s.ShearSource != vtkWallTraction::NO_SHEAR)
-      {
-        NewCellDoubleArray(out, names::SkinFrictionCoefficient, 1);
-      }
-    }
+    MakeOutputs(s, out);
     return true;
   }
   Inputs inputs;
@@ -371,54 +382,22 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   inputs.Points = MakePointView(in);
   inputs.Ghosts = CellGhostMask(in);
 
-  Outputs o;
-  o.Full = s.AllArrays;
-  o.Area = NewCellDoubleArray(out, names::FaceArea, 1);
-  o.ForceP = NewCellDoubleArray(out, names::PressureForce, 3);
-  o.ForceV = NewCellDoubleArray(out, names::ViscousForce, 3);
-  if (o.Full)
-  {
-    o.Normal = NewCellDoubleArray(out, names::WallNormal, 3);
-    o.TractionP = NewCellDoubleArray(out, names::PressureTraction, 3);
-    o.TractionV = NewCellDoubleArray(out, names::ViscousTraction, 3);
-    o.Traction = NewCellDoubleArray(out, names::Traction, 3);
-    o.Force = NewCellDoubleArray(out, names::Force, 3);
-    o.NormalV = NewCellDoubleArray(out, names::NormalViscousStress, 1);
-    o.Directional = NewCellDoubleArray(out, names::DirectionalTraction, 1);
-  }
-  if (s.DynamicPressure > 0 && o.Full)
-  {
-    o.Cp = NewCellDoubleArray(out, names::PressureCoefficient, 1);
-    if (s.ShearSource != vtkWallTraction::NO_SHEAR)
-    {
-      o.Cf = NewCellDoubleArray(out, names::SkinFrictionCoefficient, 1);
-    }
-  }
+  const Outputs o = MakeOutputs(s, out);
   if (!inputs.Points.Data)
   {
     // Cells without points: nothing is a face.
     tally.NonSurface += static_cast<double>(in->GetNumberOfCells());
     return true;
   }
-  FaceTopology<vtkTypeInt32> probe;
-  const bool wide = FacesUse64BitIds(in);
-  const bool haveFaces = wide ? true : MakeFaceTopology<vtkTypeInt32>(in, probe);
-  if (!haveFaces && !wide)
+  if (!vtkPolyData::SafeDownCast(in) && !vtkUnstructuredGrid::SafeDownCast(in))
   {
     error = "Wall Traction takes polydata or unstructured grids of 2D cells; block '" +
       blockName + "' is a " + in->GetClassName() + ".";
     return false;
   }
-  if (wide)
-  {
-    inputs.Points.IsFloat ? RunFaces<vtkTypeInt64, float>(s, inputs, o, in, tally)
-                          : RunFaces<vtkTypeInt64, double>(s, inputs, o, in, tally);
-  }
-  else
-  {
-    inputs.Points.IsFloat ? RunFaces<vtkTypeInt32, float>(s, inputs, o, in, tally)
-                          : RunFaces<vtkTypeInt32, double>(s, inputs, o, in, tally);
-  }
+  DispatchFaces(in, inputs.Points.IsFloat, [&](auto id, auto pt) {
+    RunFaces<decltype(id), decltype(pt)>(s, inputs, o, in, tally);
+  });
   return true;
 }
 
@@ -550,14 +529,7 @@ int vtkWallTraction::RequestData(
   GlobalSum(global, 9);
   if (global[0] > 0)
   {
-    if (!ok)
-    {
-      vtkErrorMacro(<< error);
-    }
-    else if (ProcessRank() == 0)
-    {
-      vtkErrorMacro("Bad input on another rank (see its message); no output.");
-    }
+    ReportAgreedFailure(this, ok ? std::string() : error);
     output->Initialize();
     return 0;
   }

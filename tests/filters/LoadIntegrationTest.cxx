@@ -18,6 +18,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <initializer_list>
 
 using namespace wltest;
 
@@ -41,6 +42,18 @@ vtkSmartPointer<vtkLoadIntegration> Integrate(vtkDataObject* input)
   auto li = vtkSmartPointer<vtkLoadIntegration>::New();
   li->SetInputConnection(wt->GetOutputPort());
   return li;
+}
+
+/// An integer cell array "zone" with one value per face of the box.
+void AddZones(vtkPolyData* box, std::initializer_list<int> values)
+{
+  auto ids = vtkSmartPointer<vtkIntArray>::New();
+  ids->SetName("zone");
+  for (int v : values)
+  {
+    ids->InsertNextValue(v);
+  }
+  box->GetCellData()->AddArray(ids);
 }
 
 int Row(vtkTable* t, const std::string& name)
@@ -113,14 +126,7 @@ TEST(LoadIntegration, PartitionedCollectionRegions)
 TEST(LoadIntegration, RegionArray)
 {
   auto box = PressurisedBox({ 0, 0, 0 }, { 1, 1, 1 }, 1.0);
-  auto ids = vtkSmartPointer<vtkIntArray>::New();
-  ids->SetName("zone");
-  const int values[6] = { 3, 3, 7, 7, 7, 10 };
-  for (int v : values)
-  {
-    ids->InsertNextValue(v);
-  }
-  box->GetCellData()->AddArray(ids);
+  AddZones(box, { 3, 3, 7, 7, 7, 10 });
   auto li = Integrate(box);
   li->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "zone");
   li->Update();
@@ -140,14 +146,7 @@ TEST(LoadIntegration, RegionArray)
 TEST(LoadIntegration, AxesCoefficientsAndLineOfAction)
 {
   auto box = PressurisedBox({ 0, 0, 0 }, { 1, 1, 1 }, 4.0);
-  auto ids = vtkSmartPointer<vtkIntArray>::New();
-  ids->SetName("zone");
-  const int values[6] = { 0, 1, 1, 1, 1, 1 };
-  for (int v : values)
-  {
-    ids->InsertNextValue(v);
-  }
-  box->GetCellData()->AddArray(ids);
+  AddZones(box, { 0, 1, 1, 1, 1, 1 });
   auto li = Integrate(box);
   li->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "zone");
   li->SetFlowAngles(90.0, 0.0); // drag along +z, lift along -x
@@ -205,13 +204,7 @@ TEST(LoadIntegration, EmptyInputWithoutWallTractionIsAnError)
 TEST(LoadIntegration, TotalRowIdNeverCollides)
 {
   auto box = PressurisedBox({ 0, 0, 0 }, { 1, 1, 1 }, 1.0);
-  auto ids = vtkSmartPointer<vtkIntArray>::New();
-  ids->SetName("zone");
-  for (int v : { -1, -1, -1, 0, 0, 0 })
-  {
-    ids->InsertNextValue(v);
-  }
-  box->GetCellData()->AddArray(ids);
+  AddZones(box, { -1, -1, -1, 0, 0, 0 });
   auto li = Integrate(box);
   li->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "zone");
   li->Update();

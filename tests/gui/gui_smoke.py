@@ -9,7 +9,6 @@ the total against the exact Stokes loads and writes a screenshot. The result
 goes to $WALLLOADS_GUI_RESULT ("PASS ..." or "FAIL ..."), read by the CTest
 wrapper, because the GUI's Python output does not reach the terminal."""
 import json
-import math
 import os
 import traceback
 

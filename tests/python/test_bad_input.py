@@ -9,7 +9,6 @@ with the message as call data).
 """
 import numpy as np
 
-import vtkmodules.util.misc
 import vtkmodules.util.vtkConstants
 from vtkmodules.util.numpy_support import numpy_to_vtk, vtk_to_numpy
 from vtkmodules.vtkCommonCore import vtkPoints
@@ -29,39 +28,13 @@ TOTALS = ["Area", "Pressure Force", "Viscous Force", "Force", "Pressure Moment",
           "Drag", "Side Force", "Lift", "Rolling Moment", "Pitching Moment", "Yawing Moment"]
 
 
-class Capture:
-    """Collect the ErrorEvent and WarningEvent messages of a proxy's VTK object."""
-
-    def __init__(self, proxy):
-        self.errors, self.warnings = [], []
-
-        @vtkmodules.util.misc.calldata_type(vtkmodules.util.vtkConstants.VTK_STRING)
-        def on_error(obj, event, message):
-            self.errors.append(message)
-
-        @vtkmodules.util.misc.calldata_type(vtkmodules.util.vtkConstants.VTK_STRING)
-        def on_warning(obj, event, message):
-            self.warnings.append(message)
-
-        self._callbacks = (on_error, on_warning)       # keep them alive
-        obj = proxy.GetClientSideObject()
-        obj.AddObserver("ErrorEvent", on_error)
-        obj.AddObserver("WarningEvent", on_warning)
-
-    def clear(self):
-        del self.errors[:]
-        del self.warnings[:]
+Capture = T.Capture
 
 
-def expect(label, condition, detail=""):
-    print("%-62s %s %s" % (label, "ok" if condition else "FAILED", detail))
-    assert condition, "%s: %s" % (label, detail)
+expect = T.expect
 
 
-def contains_all(label, message, parts):
-    missing = [p for p in parts if p not in message]
-    print("%-62s message: %r" % (label, message.strip().splitlines()[-1] if message else message))
-    assert not missing, "%s: message lacks %s" % (label, missing)
+contains_all = T.contains_all
 
 
 def cell_names(ds):
@@ -120,13 +93,7 @@ def check_missing_and_wrong_width():
     direct = vtkWallTraction()
     direct.SetInputData(pd)
     direct.SetInputArrayToProcess(0, 0, 0, vtkDataObject.FIELD_ASSOCIATION_POINTS, "p")
-    dmsg = []
-
-    @vtkmodules.util.misc.calldata_type(vtkmodules.util.vtkConstants.VTK_STRING)
-    def on_direct_error(obj, event, message):
-        dmsg.append(message)
-
-    direct.AddObserver("ErrorEvent", on_direct_error)
+    dmsg = Capture(direct).errors
     direct.GetExecutive().AddObserver("ErrorEvent", lambda *a: None)   # keep the executive quiet
     direct.Update()
     expect("pressure asked on points (VTK class): one error", len(dmsg) == 1, str(dmsg))

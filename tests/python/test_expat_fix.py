@@ -8,7 +8,6 @@ printed (it depends on the expat version installed) but not asserted."""
 import os
 import shutil
 import subprocess
-import sys
 import tempfile
 
 import wl_testing as T

@@ -126,7 +126,7 @@ else:
 # the partition is made here as a partitioner would: each rank owns a sector
 # of azimuth columns and also holds the neighbouring column on each side,
 # marked DUPLICATECELL. With 3 ranks the last one holds nothing.
-from vtkmodules.vtkCommonDataModel import vtkPolyData, vtkCellArray, vtkDataSetAttributes  # noqa: E402
+from vtkmodules.vtkCommonDataModel import vtkDataSetAttributes  # noqa: E402
 from vtkmodules.vtkCommonCore import vtkUnsignedCharArray  # noqa: E402
 n_az = 80
 owners = 1 if ranks == 1 else (2 if ranks == 2 else ranks - 1)

@@ -39,17 +39,7 @@ RTOL = 1e-12
 
 
 def close(label, got, expected, rtol=RTOL, atol=0.0, source=""):
-    got = np.asarray(got, dtype=float)
-    expected = np.asarray(expected, dtype=float)
-    if got.size <= 6:
-        T.check_close(label, got, expected, rtol=rtol, atol=atol, source=source)
-        return
-    assert got.shape == expected.shape, "%s: shape %s != %s" % (label, got.shape, expected.shape)
-    err = np.max(np.abs(got - expected))
-    scale = np.max(np.abs(expected))
-    print("%-55s %s: max |err| %.3e, max |expected| %.3e (tol %.1e rel, %.1e abs) %s" % (
-        label, "x".join(map(str, got.shape)), err, scale, rtol, atol, ("[" + source + "]") if source else ""))
-    assert err <= atol + rtol * scale, "%s: |err| = %g exceeds tolerance" % (label, err)
+    T.close_arrays(label, got, expected, rtol=rtol, atol=atol, source=source)
 
 
 # ---------------------------------------------------------------------------

@@ -69,19 +69,7 @@ def run(pd, integration=None, **props):
     return faces, totals, wfd
 
 
-def close(label, got, expected, rtol=0.0, atol=0.0, source=""):
-    """check_close, printing only the worst error for per-face arrays."""
-    got = np.asarray(got, dtype=float)
-    expected = np.asarray(expected, dtype=float)
-    if got.size <= 6:
-        T.check_close(label, got, expected, rtol=rtol, atol=atol, source=source)
-        return
-    assert got.shape == expected.shape, "%s: shape %s != %s" % (label, got.shape, expected.shape)
-    err = np.max(np.abs(got - expected))
-    scale = np.max(np.abs(expected))
-    print("%-55s %s: max |err| %.3e, max |expected| %.3e (tol %.1e rel, %.1e abs) %s" % (
-        label, "x".join(map(str, got.shape)), err, scale, rtol, atol, ("[" + source + "]") if source else ""))
-    assert err <= atol + rtol * scale, "%s: |err| = %g exceeds tolerance" % (label, err)
+close = T.close_arrays
 
 
 def compare_faces(label, got, expected, names, rtol, source=""):

@@ -19,10 +19,7 @@ with the message as call data).
 """
 import numpy as np
 
-import vtkmodules.util.misc
-import vtkmodules.util.vtkConstants
-from vtkmodules.util.numpy_support import vtk_to_numpy
-from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkDataObject, vtkDataObjectTreeIterator,
+from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkDataObject,
                                            vtkMultiBlockDataSet, vtkPolyData, vtkUnstructuredGrid)
 
 import wl_testing as T
@@ -43,36 +40,13 @@ Y = np.linspace(0.0, HGT, 5)
 Z = np.linspace(0.0, 1.0, 3)
 
 
-class Capture:
-    """ErrorEvent / WarningEvent messages of a VTK object (or a proxy's)."""
-
-    def __init__(self, obj):
-        self.errors, self.warnings = [], []
-
-        @vtkmodules.util.misc.calldata_type(vtkmodules.util.vtkConstants.VTK_STRING)
-        def on_error(o, event, message):
-            self.errors.append(message)
-
-        @vtkmodules.util.misc.calldata_type(vtkmodules.util.vtkConstants.VTK_STRING)
-        def on_warning(o, event, message):
-            self.warnings.append(message)
-
-        self._keep = (on_error, on_warning)
-        obj = obj.GetClientSideObject() if hasattr(obj, "GetClientSideObject") else obj
-        obj.AddObserver("ErrorEvent", on_error)
-        obj.AddObserver("WarningEvent", on_warning)
+Capture = T.Capture
 
 
-def expect(label, condition, detail=""):
-    print("%-70s %s %s" % (label, "ok" if condition else "FAILED", detail))
-    assert condition, "%s: %s" % (label, detail)
+expect = T.expect
 
 
-def contains_all(label, message, parts):
-    missing = [p for p in parts if p not in message]
-    text = message.strip().splitlines()[-1] if message else message
-    print("%-70s message: %r" % (label, text))
-    assert not missing, "%s: message lacks %s" % (label, missing)
+contains_all = T.contains_all
 
 
 def last_line(messages):

@@ -73,8 +73,6 @@ import time
 
 import numpy as np
 
-import vtkmodules.util.misc
-import vtkmodules.util.vtkConstants
 
 import wl_testing as T
 import wallloads_scenes as S
@@ -119,43 +117,13 @@ RECORDED_C = {
 }
 
 
-class Capture:
-    """ErrorEvent / WarningEvent messages of a proxy's VTK object."""
-
-    def __init__(self, proxy):
-        self.errors, self.warnings = [], []
-
-        @vtkmodules.util.misc.calldata_type(vtkmodules.util.vtkConstants.VTK_STRING)
-        def on_error(obj, event, message):
-            self.errors.append(message)
-
-        @vtkmodules.util.misc.calldata_type(vtkmodules.util.vtkConstants.VTK_STRING)
-        def on_warning(obj, event, message):
-            self.warnings.append(message)
-
-        self._keep = (on_error, on_warning)
-        obj = proxy.GetClientSideObject()
-        obj.AddObserver("ErrorEvent", on_error)
-        obj.AddObserver("WarningEvent", on_warning)
+Capture = T.Capture
 
 
-def close(label, got, expected, rtol=0.0, atol=0.0, source=""):
-    """|got - expected| <= atol + rtol max|expected|; prints the worst error."""
-    got = np.asarray(got, dtype=float)
-    expected = np.broadcast_to(np.asarray(expected, dtype=float), got.shape)
-    err = float(np.max(np.abs(got - expected))) if got.size else 0.0
-    scale = float(np.max(np.abs(expected))) if got.size else 0.0
-    tol = atol + rtol * scale
-    ok = got.size > 0 and err <= tol and bool(np.all(np.isfinite(got)))
-    print("%-74s |err| %.3e = %.2e rel (tol %.1e abs) %s %s" % (label, err, err / scale if scale else err, tol,
-                                                            "ok" if ok else "FAILED",
-                                                            ("[" + source + "]") if source else ""))
-    assert ok, "%s: max error %g exceeds %g (or no values / non-finite)" % (label, err, tol)
+close = T.close_worst
 
 
-def expect(label, condition, detail=""):
-    print("%-74s %s %s" % (label, "ok" if condition else "FAILED", detail))
-    assert condition, "%s: %s" % (label, detail)
+expect = T.expect
 
 
 # ---------------------------------------------------------------------------

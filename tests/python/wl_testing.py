@@ -4,13 +4,11 @@ datasets through the proxies, and read back field data and tables.
 Every check is an assertion with its tolerance and the source of the expected
 value stated beside it; a test prints what it measured so that CTest logs show
 the numbers."""
-import math
 import os
 import sys
 
 import numpy as np
 
-from paraview import servermanager as sm
 from paraview import simple
 
 _loaded = False
@@ -50,20 +48,10 @@ def field(data, name):
 
 
 def table_rows(table):
-    """Rows of a vtkTable as {region name: {column: value or vector}}."""
-    names = table.GetColumnByName("Region")
-    rows = {}
-    for r in range(table.GetNumberOfRows()):
-        row = {}
-        for c in range(table.GetNumberOfColumns()):
-            col = table.GetColumn(c)
-            if col.GetName() == "Region":
-                continue
-            n = col.GetNumberOfComponents()
-            vals = np.array([col.GetComponent(r, k) for k in range(n)])
-            row[col.GetName()] = vals[0] if n == 1 else vals
-        rows[names.GetValue(r)] = row
-    return rows
+    """Rows of a vtkTable as {region name: {column: value or numpy vector}}."""
+    from wallloads.batch import table_rows as rows_of
+    return {region: {name: (np.array(v) if isinstance(v, tuple) else v) for name, v in row.items()}
+            for region, row in rows_of(table).items()}
 
 
 def cell_array(data, name):
@@ -94,3 +82,70 @@ def observed_order(h, errors):
 def done(name):
     print("%s: all checks passed" % name)
     sys.stdout.flush()
+
+
+def expect(label, condition, detail=""):
+    """Assert a condition, printing the label and the outcome."""
+    print("%-70s %s %s" % (label, "ok" if condition else "FAILED", detail))
+    assert condition, "%s: %s" % (label, detail)
+
+
+def contains_all(label, message, parts):
+    """Assert that a message holds every one of `parts`."""
+    missing = [p for p in parts if p not in message]
+    text = message.strip().splitlines()[-1] if message else message
+    print("%-70s message: %r" % (label, text))
+    assert not missing, "%s: message lacks %s" % (label, missing)
+
+
+def close_worst(label, got, expected, rtol=0.0, atol=0.0, source=""):
+    """|got - expected| <= atol + rtol max|expected| elementwise (expected
+    broadcast to got), every value finite; prints the worst error only."""
+    got = np.asarray(got, dtype=float)
+    expected = np.broadcast_to(np.asarray(expected, dtype=float), got.shape)
+    err = float(np.max(np.abs(got - expected))) if got.size else 0.0
+    scale = float(np.max(np.abs(expected))) if got.size else 0.0
+    tol = atol + rtol * scale
+    ok = got.size > 0 and err <= tol and bool(np.all(np.isfinite(got)))
+    print("%-74s |err| %.3e = %.2e rel (tol %.1e abs) %s %s" % (label, err, err / scale if scale else err, tol,
+                                                            "ok" if ok else "FAILED",
+                                                            ("[" + source + "]") if source else ""))
+    assert ok, "%s: max error %g exceeds %g (or no values / non-finite)" % (label, err, tol)
+
+
+def close_arrays(label, got, expected, rtol=0.0, atol=0.0, source=""):
+    """check_close for small vectors; for per-face arrays (same shape) the
+    worst error only."""
+    got = np.asarray(got, dtype=float)
+    expected = np.asarray(expected, dtype=float)
+    if got.size <= 6:
+        check_close(label, got, expected, rtol=rtol, atol=atol, source=source)
+        return
+    assert got.shape == expected.shape, "%s: shape %s != %s" % (label, got.shape, expected.shape)
+    err = np.max(np.abs(got - expected))
+    scale = np.max(np.abs(expected))
+    print("%-55s %s: max |err| %.3e, max |expected| %.3e (tol %.1e rel, %.1e abs) %s" % (
+        label, "x".join(map(str, got.shape)), err, scale, rtol, atol, ("[" + source + "]") if source else ""))
+    assert err <= atol + rtol * scale, "%s: |err| = %g exceeds tolerance" % (label, err)
+
+
+class Capture:
+    """ErrorEvent and WarningEvent messages of a VTK object (or of a proxy's)."""
+
+    def __init__(self, obj):
+        from vtkmodules.util.misc import calldata_type
+        from vtkmodules.util.vtkConstants import VTK_STRING
+        self.errors, self.warnings = [], []
+
+        @calldata_type(VTK_STRING)
+        def on_error(o, event, message):
+            self.errors.append(message)
+
+        @calldata_type(VTK_STRING)
+        def on_warning(o, event, message):
+            self.warnings.append(message)
+
+        self._keep = (on_error, on_warning)  # the observers hold weak references
+        obj = obj.GetClientSideObject() if hasattr(obj, "GetClientSideObject") else obj
+        obj.AddObserver("ErrorEvent", on_error)
+        obj.AddObserver("WarningEvent", on_warning)

@@ -11,7 +11,7 @@ PV_PLUGIN_PATH, or next to this package in a build tree.
 import math
 import os
 
-__all__ = ["load_plugin", "flow_axes", "load_table", "field_totals", "write_csv",
+__all__ = ["load_plugin", "flow_axes", "load_table", "table_rows", "field_totals", "write_csv",
            "use_threads", "UNITS"]
 
 #: SI unit of every Load Integration column (3-vectors share one unit).
@@ -86,11 +86,8 @@ def _table_of(integration):
     return integration.GetClientSideObject().GetOutputDataObject(1)
 
 
-def load_table(integration):
-    """Rows of a Load Integration table: {region: {column: float or tuple}}.
-
-    Filled on rank 0 only (empty on other ranks under MPI)."""
-    table = _table_of(integration)
+def table_rows(table):
+    """Rows of a Load Integration vtkTable: {region: {column: float or tuple}}."""
     rows = {}
     regions = table.GetColumnByName("Region")
     if regions is None:
@@ -106,6 +103,13 @@ def load_table(integration):
             row[col.GetName()] = vals[0] if n == 1 else vals
         rows[regions.GetValue(r)] = row
     return rows
+
+
+def load_table(integration):
+    """Rows of a Load Integration proxy's table: {region: {column: float or tuple}}.
+
+    Filled on rank 0 only (empty on other ranks under MPI)."""
+    return table_rows(_table_of(integration))
 
 
 def field_totals(integration):

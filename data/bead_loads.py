@@ -143,5 +143,5 @@ if os.environ.get("DISPLAY"):
     simple.SaveScreenshot(png, view, ImageResolution=[900, 700])
     print("Picture written to", png)
 else:
-    print("No display: picture skipped (run under xvfb-run to get it)")
+    print("No display: picture skipped (run under scripts/with-xvfb.sh to get it)")
 print("These results support, and do not replace, engineering judgement, local codes and licensed practice.")

@@ -1,6 +1,6 @@
 """GUI smoke test, run inside the ParaView application:
 
-    xvfb-run -a paraview --dr --script=tests/gui/gui_smoke.py --exit
+    scripts/with-xvfb.sh paraview --dr --script=tests/gui/gui_smoke.py --exit
 
 Loads the plugin into the running GUI, checks the three filters are in the
 "Wall Loads" category, builds the demo pipeline in the GUI's session, shows

@@ -108,24 +108,86 @@ vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int w
 {
   vtkDataSetAttributes* attrs =
     sel.OnPoints ? static_cast<vtkDataSetAttributes*>(ds->GetPointData()) : ds->GetCellData();
-  vtkDataArray* array = attrs->GetArray(sel.Name.c_str());
+  const char* kind = sel.OnPoints ? "point" : "cell";
+  vtkAbstractArray* abstract = attrs->GetAbstractArray(sel.Name.c_str());
+  vtkDataArray* array = vtkDataArray::SafeDownCast(abstract);
   std::ostringstream os;
   const std::string where = blockName.empty() ? std::string() : " on block '" + blockName + "'";
+  os << role << " array '" << sel.Name << "'" << where;
+  if (!abstract)
+  {
+    // Say so when the array exists with the other association.
+    vtkDataSetAttributes* other =
+      sel.OnPoints ? static_cast<vtkDataSetAttributes*>(ds->GetCellData()) : ds->GetPointData();
+    os << " not found in " << kind << " data";
+    if (other->GetAbstractArray(sel.Name.c_str()))
+    {
+      os << " (it exists in " << (sel.OnPoints ? "cell" : "point") << " data)";
+    }
+    os << "; available " << DescribeArrays(ds) << ".";
+    error = os.str();
+    return nullptr;
+  }
   if (!array)
   {
-    os << role << " array '" << sel.Name << "' not found in " << (sel.OnPoints ? "point" : "cell")
-       << " data" << where << "; available " << DescribeArrays(ds) << ".";
+    os << " is a " << abstract->GetClassName() << ", not numeric; available "
+       << DescribeArrays(ds) << ".";
     error = os.str();
     return nullptr;
   }
   if (wantComponents > 0 && array->GetNumberOfComponents() != wantComponents)
   {
-    os << role << " array '" << sel.Name << "'" << where << " has "
-       << array->GetNumberOfComponents() << " components; " << wantComponents << " expected.";
+    os << " has " << array->GetNumberOfComponents() << " components; " << wantComponents
+       << " expected.";
+    error = os.str();
+    return nullptr;
+  }
+  const vtkIdType expected = sel.OnPoints ? ds->GetNumberOfPoints() : ds->GetNumberOfCells();
+  if (array->GetNumberOfTuples() != expected)
+  {
+    os << " holds " << array->GetNumberOfTuples() << " values for " << expected << " "
+       << kind << "s; one per " << kind << " expected.";
     error = os.str();
     return nullptr;
   }
   return array;
+}
+
+bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string& error)
+{
+  const std::string where = blockName.empty() ? std::string() : " on block '" + blockName + "'";
+  for (int onPoints = 0; onPoints < 2; ++onPoints)
+  {
+    vtkDataSetAttributes* attrs = onPoints ? static_cast<vtkDataSetAttributes*>(ds->GetPointData())
+                                           : static_cast<vtkDataSetAttributes*>(ds->GetCellData());
+    vtkAbstractArray* a = attrs->GetAbstractArray(vtkDataSetAttributes::GhostArrayName());
+    if (!a)
+    {
+      continue;
+    }
+    const vtkIdType expected = onPoints ? ds->GetNumberOfPoints() : ds->GetNumberOfCells();
+    std::ostringstream os;
+    if (!vtkUnsignedCharArray::SafeDownCast(a) || a->GetNumberOfComponents() != 1)
+    {
+      os << "The " << (onPoints ? "point" : "cell") << " ghost array '"
+         << vtkDataSetAttributes::GhostArrayName() << "'" << where << " is a "
+         << a->GetClassName() << " of " << a->GetNumberOfComponents()
+         << " components; VTK expects unsigned char, 1 component.";
+    }
+    else if (a->GetNumberOfTuples() != expected)
+    {
+      os << "The " << (onPoints ? "point" : "cell") << " ghost array '"
+         << vtkDataSetAttributes::GhostArrayName() << "'" << where << " holds "
+         << a->GetNumberOfTuples() << " values for " << expected << " "
+         << (onPoints ? "points" : "cells") << ".";
+    }
+    if (!os.str().empty())
+    {
+      error = os.str();
+      return false;
+    }
+  }
+  return true;
 }
 
 ArraySelection SelectedArray(vtkAlgorithm* alg, int index)

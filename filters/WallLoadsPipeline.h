@@ -118,11 +118,23 @@ std::string LeafName(vtkDataObjectTreeIterator* it);
 double* NewCellDoubleArray(vtkDataSet* out, const char* name, int components);
 
 /**
- * Find a selected array on a dataset. On failure, `error` names the array,
- * the association looked in, and the arrays that do exist.
+ * The one validation of a selected array, used by every filter before any
+ * value is read: the array must exist with the association asked for (point
+ * or cell data), be numeric (a vtkDataArray, not a string array), have
+ * `wantComponents` components (any when 0) and hold exactly one tuple per
+ * point or cell. On failure returns nullptr, and `error` names the role (the
+ * panel label), the array, the block, the problem and the arrays that exist.
  */
 vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int wantComponents,
   const std::string& role, const std::string& blockName, std::string& error);
+
+/**
+ * Ghost arrays (vtkGhostType, point or cell data) must be unsigned char, one
+ * component, one value per point or cell: VTK itself reads them unchecked
+ * (a short one crashes GetCellType on structured grids). Every filter calls
+ * this on every leaf before anything else; false with `error` set otherwise.
+ */
+bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string& error);
 
 /// "cell arrays: a, b; point arrays: c" for error messages.
 std::string DescribeArrays(vtkDataSet* ds);

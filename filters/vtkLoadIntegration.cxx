@@ -285,6 +285,10 @@ int vtkLoadIntegration::RequestData(
       continue;
     }
     LeafInputs& in = inputs[i];
+    if (!CheckGhostArrays(ds, leaves[i].Name, error))
+    {
+      break;
+    }
     auto need = [&](const char* name, int comps, ArrayView& view) {
       if (!error.empty())
       {

@@ -614,6 +614,10 @@ int vtkShearProjection::RequestData(
   std::vector<Boundary> kept;
   for (const Leaf& leaf : all)
   {
+    if (leaf.Data && error.empty() && !CheckGhostArrays(leaf.Data, leaf.Name, error))
+    {
+      continue;
+    }
     if (!IsVolume(leaf.Data))
     {
       continue; // boundary patches of a composite reader, or empty pieces

@@ -343,6 +343,10 @@ Outputs MakeOutputs(const Settings& s, vtkDataSet* out)
 bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::string& blockName,
   Tally& tally, std::string& error)
 {
+  if (!CheckGhostArrays(in, blockName, error))
+  {
+    return false;
+  }
   if (in->GetNumberOfCells() == 0)
   {
     // An empty piece (common on some ranks) needs no arrays; it gets the

@@ -1,12 +1,14 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #include "vtkShearProjection.h"
 
+#include "WallAdjacency.h"
 #include "WallLoadsPipeline.h"
 #include "wallloads/FaceGeometry.h"
 #include "wallloads/LeastSquaresGradient.h"
 #include "wallloads/NearWallShear.h"
 #include "wallloads/Traction.h"
 #include "wallloads/WallLaw.h"
+#include "wallloads/WallQuantities.h"
 
 #include "vtkCell.h"
 #include "vtkCellData.h"
@@ -14,25 +16,18 @@
 #include "vtkCompositeDataSet.h"
 #include "vtkDataObjectTree.h"
 #include "vtkDataObjectTreeIterator.h"
-#include "vtkDataSetSurfaceFilter.h"
 #include "vtkDoubleArray.h"
 #include "vtkGenericCell.h"
 #include "vtkIdList.h"
-#include "vtkIdTypeArray.h"
 #include "vtkInformation.h"
 #include "vtkInformationVector.h"
 #include "vtkIntArray.h"
-#include "vtkMath.h"
 #include "vtkMultiBlockDataSet.h"
 #include "vtkNew.h"
 #include "vtkObjectFactory.h"
 #include "vtkPointData.h"
-#include "vtkPointSet.h"
-#include "vtkPoints.h"
 #include "vtkPolyData.h"
 #include "vtkSmartPointer.h"
-#include "vtkStaticPointLocator.h"
-#include "vtkUnstructuredGrid.h"
 
 #include <cmath>
 #include <algorithm>
@@ -46,134 +41,11 @@ namespace
 {
 using namespace wallloads;
 const double NaN = std::numeric_limits<double>::quiet_NaN();
-
-/// The boundary of one volume block, indexed for matching.
-struct Boundary
-{
-  // Identity of the mesh the entry was built from.
-  const void* Points = nullptr;
-  vtkMTimeType PointsTime = 0;
-  const void* Cells = nullptr;
-  vtkMTimeType CellsTime = 0;
-  vtkIdType NumPoints = -1, NumCells = -1;
-
-  vtkSmartPointer<vtkPolyData> Faces;          ///< boundary faces, with vtkOriginalCellIds
-  vtkSmartPointer<vtkStaticPointLocator> Near; ///< on the face centroids
-  std::vector<vtkIdType> Cell;                 ///< adjacent cell of each boundary face
-  vtkSmartPointer<vtkDataSet> Mesh;            ///< private copy for neighbour queries
-
-  double Bounds[6] = { 0, 0, 0, 0, 0, 0 };
-
-  /// What identifies a mesh: its points and cells objects (explicit meshes)
-  /// and their modification times, or, for implicit ones (image data,
-  /// structured grids), counts and bounds. Arrays do not enter.
-  struct Key
-  {
-    const void* Points;
-    vtkMTimeType PointsTime;
-    const void* Cells;
-    vtkMTimeType CellsTime;
-  };
-  static Key KeyOf(vtkDataSet* ds)
-  {
-    auto* ps = vtkPointSet::SafeDownCast(ds);
-    auto* ug = vtkUnstructuredGrid::SafeDownCast(ds);
-    Key k{ nullptr, 0, nullptr, 0 };
-    if (ps && ps->GetPoints())
-    {
-      k.Points = ps->GetPoints()->GetData();
-      k.PointsTime = ps->GetPoints()->GetMTime();
-    }
-    if (ug && ug->GetCells())
-    {
-      k.Cells = ug->GetCells();
-      k.CellsTime = ug->GetCells()->GetMTime();
-    }
-    return k;
-  }
-
-  bool Matches(vtkDataSet* ds) const
-  {
-    const Key k = KeyOf(ds);
-    double bounds[6];
-    ds->GetBounds(bounds);
-    bool same = k.Points == this->Points && k.PointsTime == this->PointsTime &&
-      k.Cells == this->Cells && k.CellsTime == this->CellsTime &&
-      ds->GetNumberOfPoints() == this->NumPoints && ds->GetNumberOfCells() == this->NumCells;
-    for (int i = 0; i < 6 && same; ++i)
-    {
-      same = bounds[i] == this->Bounds[i];
-    }
-    return same;
-  }
-
-  void Build(vtkDataSet* ds)
-  {
-    const Key k = KeyOf(ds);
-    this->Points = k.Points;
-    this->PointsTime = k.PointsTime;
-    this->Cells = k.Cells;
-    this->CellsTime = k.CellsTime;
-    this->NumPoints = ds->GetNumberOfPoints();
-    this->NumCells = ds->GetNumberOfCells();
-    ds->GetBounds(this->Bounds);
-
-    // Geometry only: the extraction must not carry the volume's arrays.
-    this->Mesh.TakeReference(ds->NewInstance());
-    this->Mesh->CopyStructure(ds);
-    auto surface = vtkSmartPointer<vtkDataSetSurfaceFilter>::New();
-    surface->SetInputData(this->Mesh);
-    surface->PassThroughCellIdsOn();
-    surface->SetOriginalCellIdsName("vtkOriginalCellIds");
-    surface->Update();
-    this->Faces = surface->GetOutput();
-    vtkDataArray* ids = this->Faces->GetCellData()->GetArray("vtkOriginalCellIds");
-    const vtkIdType n = this->Faces->GetNumberOfCells();
-    this->Cell.assign(static_cast<std::size_t>(n), -1);
-    auto centroids = vtkSmartPointer<vtkPoints>::New();
-    centroids->SetDataTypeToDouble();
-    centroids->SetNumberOfPoints(n);
-    auto list = vtkSmartPointer<vtkIdList>::New();
-    std::vector<double> xyz;
-    std::vector<vtkIdType> local;
-    for (vtkIdType f = 0; f < n; ++f)
-    {
-      this->Cell[f] = ids ? static_cast<vtkIdType>(ids->GetComponent(f, 0)) : -1;
-      this->Faces->GetCellPoints(f, list);
-      xyz.resize(3 * list->GetNumberOfIds());
-      local.resize(list->GetNumberOfIds());
-      for (vtkIdType k = 0; k < list->GetNumberOfIds(); ++k)
-      {
-        this->Faces->GetPoint(list->GetId(k), &xyz[3 * k]);
-        local[k] = k;
-      }
-      FaceFrame<double> frame;
-      if (ComputeFaceFrame<double>(xyz.data(), local.data(), static_cast<int>(local.size()), frame) ==
-        FaceStatus::Ok)
-      {
-        centroids->SetPoint(f, frame.Centroid);
-      }
-      else
-      {
-        centroids->SetPoint(f, NaN, NaN, NaN);
-      }
-    }
-    auto cloud = vtkSmartPointer<vtkPolyData>::New();
-    cloud->SetPoints(centroids);
-    this->Near = vtkSmartPointer<vtkStaticPointLocator>::New();
-    this->Near->SetDataSet(cloud);
-    this->Near->BuildLocator();
-    if (auto* grid = vtkUnstructuredGrid::SafeDownCast(this->Mesh))
-    {
-      grid->BuildLinks(); // once, for the face neighbours of wall cells
-    }
-  }
-};
 } // namespace
 
 struct vtkShearProjection::AdjacencyCache
 {
-  std::vector<Boundary> Blocks;
+  WallAdjacency Blocks;
 };
 
 namespace
@@ -182,7 +54,7 @@ struct VolumeBlock
 {
   vtkDataSet* Data = nullptr;
   std::string Name;
-  Boundary* Index = nullptr;
+  const WallAdjacency::Block* Index = nullptr;
   ArrayView Velocity, Gradient, Viscosity, TurbulentViscosity, Density;
 };
 
@@ -232,24 +104,6 @@ void CellValue(const ArrayView& a, vtkIdList* cellPoints, vtkIdType cell, int co
       sum += a.Get(cellPoints->GetId(j), k);
     }
     out[k] = sum / static_cast<double>(cellPoints->GetNumberOfIds());
-  }
-}
-
-void CellCentre(vtkDataSet* ds, vtkIdList* cellPoints, double x[3])
-{
-  x[0] = x[1] = x[2] = 0;
-  for (vtkIdType j = 0; j < cellPoints->GetNumberOfIds(); ++j)
-  {
-    double p[3];
-    ds->GetPoint(cellPoints->GetId(j), p);
-    for (int k = 0; k < 3; ++k)
-    {
-      x[k] += p[k];
-    }
-  }
-  for (int k = 0; k < 3; ++k)
-  {
-    x[k] /= static_cast<double>(cellPoints->GetNumberOfIds());
   }
 }
 
@@ -401,17 +255,12 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scrat
       std::vector<double>& us = work.Us;
       ds.assign(1, d);
       us.assign(uP, uP + 3);
-      // Only neighbours stacked off the wall: further out (d > 1.2 d_P) and
-      // mostly along the normal. Neighbours beside the cell sample the
-      // profile of another wall position (a developing layer, a curved
-      // wall) at nearly the same distance and would set the curvature.
+      // Only neighbours stacked off the wall (NearWallShear.h).
       for (std::size_t j = 0; j < xk.size() / 3; ++j)
       {
         const double off[3] = { xk[3 * j] - xf[0], xk[3 * j + 1] - xf[1], xk[3 * j + 2] - xf[2] };
-        const double dj = Dot(off, n);
-        double side[3];
-        SplitNormalTangential(off, n, side);
-        if (dj > 1.2 * d && Norm(side) <= 0.5 * dj)
+        double dj;
+        if (StackedOffWall(off, n, d, dj))
         {
           ds.push_back(dj);
           us.insert(us.end(), &uk[3 * j], &uk[3 * j] + 3);
@@ -428,51 +277,26 @@ void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scrat
       break;
     }
     case vtkShearProjection::WALL_LAW:
-    {
-      const double du[3] = { uP[0] - uW[0], uP[1] - uW[1], uP[2] - uW[2] };
-      double ut[3];
-      SplitNormalTangential(du, n, ut);
-      const double U = Norm(ut);
-      FrictionVelocityResult<double> r;
-      if (SolveSpaldingFrictionVelocity(U, d, nu, r, s.Kappa, s.B) != WallLawStatus::Ok)
+      if (WallLawShear(uP, uW, n, d, nu, rho, s.Kappa, s.B, tau) != WallLawStatus::Ok)
       {
         ++counts.Failed;
         return;
       }
-      const double scale = U > 0 ? rho * r.FrictionVelocity * r.FrictionVelocity / U : 0.0;
-      for (int k = 0; k < 3; ++k)
-      {
-        tau[k] = scale * ut[k];
-      }
       break;
-    }
   }
   if (alongWall)
   {
-    // The other half of tau n: mu (G^T n)_t, the derivative of the normal
-    // velocity along the wall. At the wall it is the wall velocity's: zero
-    // for stationary and translating walls, half the shear on a spinning
-    // cylinder. Known only where the wall velocity is point data.
-    const double* W = face.WallGradient;
-    double gtn[3];
-    for (int j = 0; j < 3; ++j)
-    {
-      gtn[j] = W[j] * n[0] + W[3 + j] * n[1] + W[6 + j] * n[2];
-    }
-    double along[3];
-    SplitNormalTangential(gtn, n, along);
-    for (int k = 0; k < 3; ++k)
-    {
-      tau[k] += muEff * along[k];
-    }
+    // The other half of tau n (WallQuantities.h); known only where the wall
+    // velocity is point data (WallGradient is zero otherwise).
+    AddAlongWallShear(face.WallGradient, n, muEff, tau);
   }
   if (!AllFinite(tau, 3))
   {
     ++counts.Failed;
     return;
   }
-  const double utau = std::sqrt(Norm(tau) / rho);
-  const double yplus = d * utau / nu;
+  double utau, yplus;
+  FrictionVelocityAndYPlus(tau, rho, d, nu, utau, yplus);
   for (int k = 0; k < 3; ++k)
   {
     out[k] = tau[k];
@@ -610,8 +434,7 @@ int vtkShearProjection::RequestData(
   ListLeaves(volumeIn, all, regionNames);
   std::vector<VolumeBlock> volume;
   std::string error;
-  std::vector<Boundary>& cache = this->Cache->Blocks;
-  std::vector<Boundary> kept;
+  WallAdjacency& cache = this->Cache->Blocks;
   for (const Leaf& leaf : all)
   {
     if (leaf.Data && error.empty() && !CheckGhostArrays(leaf.Data, leaf.Name, error))
@@ -641,26 +464,14 @@ int vtkShearProjection::RequestData(
     volume.push_back(vb);
   }
   // Reuse a cached boundary for every block whose mesh is unchanged.
-  for (VolumeBlock& vb : volume)
   {
-    bool found = false;
-    for (Boundary& b : cache)
+    std::vector<vtkDataSet*> meshes;
+    for (const VolumeBlock& vb : volume)
     {
-      if (b.Matches(vb.Data))
-      {
-        kept.push_back(b);
-        found = true;
-        break;
-      }
+      meshes.push_back(vb.Data);
     }
-    if (!found)
-    {
-      kept.emplace_back();
-      kept.back().Build(vb.Data);
-      ++this->NumberOfAdjacencyBuilds;
-    }
+    this->NumberOfAdjacencyBuilds += cache.Update(meshes);
   }
-  cache = kept;
   for (std::size_t i = 0; i < volume.size(); ++i)
   {
     volume[i].Index = &cache[i];
@@ -769,7 +580,7 @@ int vtkShearProjection::RequestData(
     double unmatched = 0;
     auto corners = vtkSmartPointer<vtkIdList>::New();
     auto found = vtkSmartPointer<vtkIdList>::New();
-    bool pickFluidSide = false;
+    std::vector<double> cornerXyz, cornerU;
     for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
     {
       WallFace& face = wb.Faces[f];
@@ -791,16 +602,12 @@ int vtkShearProjection::RequestData(
       if (!wallsIn)
       {
         face.Block = static_cast<int>(w);
-        face.Cell = volume[w].Index->Cell[f];
+        face.Cell = cache[w].Cell[f];
         // A face that another volume block also has is an interface, not a wall.
-        for (std::size_t v = 0; v < volume.size() && face.Cell >= 0; ++v)
+        if (face.Cell >= 0 && cache.IsInterface(w, c, tol))
         {
-          double d2;
-          if (v != w && volume[v].Index->Near->FindClosestPointWithinRadius(tol, c, d2) >= 0)
-          {
-            face.Cell = -1;
-            ++counts.Interfaces;
-          }
+          face.Cell = -1;
+          ++counts.Interfaces;
         }
         if (face.Cell < 0)
         {
@@ -809,60 +616,9 @@ int vtkShearProjection::RequestData(
       }
       else
       {
-        // Every boundary face at this centroid, over all volume blocks. Two
-        // (the sides of a zero-thickness baffle) are told apart by the
-        // wall's stored orientation, taken to point out of the fluid (as
-        // solvers export walls); one is taken as it is.
-        struct Candidate
-        {
-          int Block;
-          vtkIdType Cell;
-          double Distance2;
-        };
-        std::vector<Candidate> candidates;
-        for (std::size_t v = 0; v < volume.size(); ++v)
-        {
-          volume[v].Index->Near->FindPointsWithinRadius(tol, c, found);
-          for (vtkIdType j = 0; j < found->GetNumberOfIds(); ++j)
-          {
-            const vtkIdType id = found->GetId(j);
-            double x[3];
-            volume[v].Index->Near->GetDataSet()->GetPoint(id, x);
-            const double d2 = vtkMath::Distance2BetweenPoints(x, c);
-            candidates.push_back({ static_cast<int>(v), volume[v].Index->Cell[id], d2 });
-          }
-        }
-        const Candidate* pick = nullptr;
-        for (const Candidate& cand : candidates)
-        {
-          bool better = !pick || cand.Distance2 < pick->Distance2;
-          if (candidates.size() > 1 && cand.Cell >= 0)
-          {
-            vtkDataSet* mesh = volume[cand.Block].Index->Mesh;
-            mesh->GetCellPoints(cand.Cell, corners);
-            double xP[3];
-            CellCentre(mesh, corners, xP);
-            const double toP[3] = { xP[0] - c[0], xP[1] - c[1], xP[2] - c[2] };
-            const bool fluidSide = Dot(toP, face.Frame.Normal) < 0;
-            if (pick && fluidSide != pickFluidSide)
-            {
-              better = fluidSide;
-            }
-            if (better)
-            {
-              pickFluidSide = fluidSide;
-            }
-          }
-          if (better)
-          {
-            pick = &cand;
-          }
-        }
-        if (pick)
-        {
-          face.Block = pick->Block;
-          face.Cell = pick->Cell;
-        }
+        const WallAdjacency::Match m = cache.FindAdjacentCell(c, face.Frame.Normal, tol, found, corners);
+        face.Block = m.Block;
+        face.Cell = m.Cell;
       }
       if (face.Cell < 0)
       {
@@ -872,6 +628,7 @@ int vtkShearProjection::RequestData(
       if (wallVelocity.Valid())
       {
         out->GetCellPoints(f, corners);
+        const vtkIdType nc = corners->GetNumberOfIds();
         for (int k = 0; k < 3; ++k)
         {
           if (!wallVelocity.OnPoints)
@@ -880,36 +637,26 @@ int vtkShearProjection::RequestData(
             continue;
           }
           double sum = 0;
-          for (vtkIdType j = 0; j < corners->GetNumberOfIds(); ++j)
+          for (vtkIdType j = 0; j < nc; ++j)
           {
             sum += wallVelocity.Get(corners->GetId(j), k);
           }
-          face.WallVelocity[k] = sum / static_cast<double>(corners->GetNumberOfIds());
+          face.WallVelocity[k] = sum / static_cast<double>(nc);
         }
         if (wallVelocity.OnPoints)
         {
-          // Green-Gauss over the face polygon: grad_s u = (1/A) sum over edges
-          // of the edge-mean value times the in-plane edge normal e x n.
-          const vtkIdType nc = corners->GetNumberOfIds();
+          cornerXyz.resize(3 * nc);
+          cornerU.resize(3 * nc);
           for (vtkIdType j = 0; j < nc; ++j)
           {
-            const vtkIdType a = corners->GetId(j);
-            const vtkIdType b = corners->GetId((j + 1) % nc);
-            double pa[3], pb[3];
-            out->GetPoint(a, pa);
-            out->GetPoint(b, pb);
-            const double e[3] = { pb[0] - pa[0], pb[1] - pa[1], pb[2] - pa[2] };
-            double en[3];
-            Cross(e, face.Frame.Normal, en);
-            for (int i = 0; i < 3; ++i)
+            out->GetPoint(corners->GetId(j), &cornerXyz[3 * j]);
+            for (int k = 0; k < 3; ++k)
             {
-              const double mean = 0.5 * (wallVelocity.Get(a, i) + wallVelocity.Get(b, i));
-              for (int k = 0; k < 3; ++k)
-              {
-                face.WallGradient[3 * i + k] += mean * en[k] / face.Frame.Area;
-              }
+              cornerU[3 * j + k] = wallVelocity.Get(corners->GetId(j), k);
             }
           }
+          FaceVelocityGradient(cornerXyz.data(), cornerU.data(), static_cast<int>(nc),
+            face.Frame.Normal, face.Frame.Area, face.WallGradient);
         }
       }
     }

@@ -212,6 +212,23 @@ ShearStatus WallFitShear(const T* d, const T* u, const T* w, int numSamples, con
   return AllFinite(tau, 3) ? ShearStatus::Ok : fail(ShearStatus::BadInput);
 }
 
+/**
+ * Sample selection of the wall fit (b): a neighbour at offset `off` from the
+ * face centroid is used when it lies further out than the adjacent cell
+ * (d_j > 1.2 d_P) and mostly along the normal (its along-wall offset at most
+ * half its distance). Neighbours beside the cell sample the profile of
+ * another wall position (a developing layer, a curved wall) at nearly the
+ * same distance and would set the curvature. Writes the distance d_j.
+ */
+template <typename T>
+inline bool StackedOffWall(const T off[3], const T n[3], T dP, T& dj)
+{
+  dj = Dot(off, n);
+  T side[3];
+  SplitNormalTangential(off, n, side);
+  return dj > T(1.2) * dP && Norm(side) <= T(0.5) * dj;
+}
+
 /// (c) tau_w = t(mu_eff (G + G^T) n) from a row-major gradient G[3i+j] = du_i/dx_j.
 template <typename T>
 inline ShearStatus GradientWallShear(const T G[9], T muEff, const T n[3], T tau[3])

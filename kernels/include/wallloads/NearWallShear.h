@@ -18,7 +18,9 @@
  *     recalled from memory), so at zero pressure gradient (a flat plate) the
  *     error is third order.
  *
- * (b) Wall fit (two or more samples, second order): weighted least squares
+ * (b) One-dimensional wall fit, for samples on one line along the normal
+ *     (Shear Projection's Wall fit method is the multi-dimensional fit of
+ *     WallFit.h, which needs no stacked cells): weighted least squares
  *     of each tangential component of u_i - u_W over the samples (d_i) by the
  *     profile u_t(d) = a d + b d^2, which has no slip built in; tau_w = mu_eff a.
  *     Exact for parabolic profiles (plane Poiseuille flow); otherwise its
@@ -210,23 +212,6 @@ ShearStatus WallFitShear(const T* d, const T* u, const T* w, int numSamples, con
     }
   }
   return AllFinite(tau, 3) ? ShearStatus::Ok : fail(ShearStatus::BadInput);
-}
-
-/**
- * Sample selection of the wall fit (b): a neighbour at offset `off` from the
- * face centroid is used when it lies further out than the adjacent cell
- * (d_j > 1.2 d_P) and mostly along the normal (its along-wall offset at most
- * half its distance). Neighbours beside the cell sample the profile of
- * another wall position (a developing layer, a curved wall) at nearly the
- * same distance and would set the curvature. Writes the distance d_j.
- */
-template <typename T>
-inline bool StackedOffWall(const T off[3], const T n[3], T dP, T& dj)
-{
-  dj = Dot(off, n);
-  T side[3];
-  SplitNormalTangential(off, n, side);
-  return dj > T(1.2) * dP && Norm(side) <= T(0.5) * dj;
 }
 
 /// (c) tau_w = t(mu_eff (G + G^T) n) from a row-major gradient G[3i+j] = du_i/dx_j.

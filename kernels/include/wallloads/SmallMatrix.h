@@ -219,11 +219,14 @@ namespace detail
  * L D L^T factorisation. A pivot D_j is compared with N_jj: D_j / N_jj is
  * the pivot of the unit-diagonal (Jacobi-scaled) matrix, so the test is
  * scale-free without scaling anything (Cholesky-type factorisations are
- * invariant under diagonal scaling). False when one falls below
- * `pivotTolerance`.
+ * invariant under diagonal scaling). False when one of the first `keep`
+ * falls below `pivotTolerance`; a later column whose pivot does is dropped
+ * (its unknown set to zero: the least-squares solution without it), which
+ * solves in the span of the columns the data determine.
  */
 template <typename T, int C, int R>
-bool CholeskySolveScaled(const T (&N)[C][C], const T (&r)[C][R], T* X, T pivotTolerance)
+bool CholeskySolveScaled(
+  const T (&N)[C][C], const T (&r)[C][R], T* X, T pivotTolerance, int keep = C)
 {
   T L[C][C];
   T D[C], invD[C];
@@ -238,7 +241,18 @@ bool CholeskySolveScaled(const T (&N)[C][C], const T (&r)[C][R], T* X, T pivotTo
     }
     if (!(N[j][j] > T(0)) || !(d > pivotTolerance * N[j][j]) || !std::isfinite(d))
     {
-      return false;
+      if (j < keep)
+      {
+        return false;
+      }
+      // A column past `keep` that the others (nearly) determine: dropped, as
+      // if it were not in the system (its unknown is zero).
+      D[j] = invD[j] = T(0);
+      for (int i = j + 1; i < C; ++i)
+      {
+        L[i][j] = T(0);
+      }
+      continue;
     }
     D[j] = d;
     invD[j] = T(1) / d;

@@ -102,35 +102,114 @@ struct WallFitResult : WallFitInfo
 
 namespace detail
 {
-/// Quadratic monomials of the local coordinates, in column order.
-template <typename T>
-inline void QuadraticMonomials(const T xi[3], int dim, T* m)
+/// A fit's basis: monomials of the local coordinates (xi_0 along n, then the
+/// tangential ones), as exponents; the constant first, then the linear terms
+/// (whose coefficients are the gradient), then the rest.
+struct FitBasis
 {
-  int c = 0;
-  m[c++] = T(1);
-  for (int a = 0; a < dim; ++a)
+  int Columns = 0;
+  int Exponents[13][3];
+  void Add(int a, int b, int c)
   {
-    m[c++] = xi[a];
+    this->Exponents[this->Columns][0] = a;
+    this->Exponents[this->Columns][1] = b;
+    this->Exponents[this->Columns][2] = c;
+    ++this->Columns;
   }
-  for (int a = 0; a < dim; ++a)
+  /// The quadratic in `dim` coordinates; with `alongWall`, also xi_0 xi_a xi_b
+  /// for the tangential a <= b (the wall gradient varying quadratically along
+  /// the wall).
+  static FitBasis Make(int dim, bool alongWall)
   {
-    for (int b = a; b < dim; ++b)
+    FitBasis basis;
+    basis.Add(0, 0, 0);
+    for (int a = 0; a < dim; ++a)
     {
-      m[c++] = xi[a] * xi[b];
+      basis.Add(a == 0, a == 1, a == 2);
+    }
+    for (int a = 0; a < dim; ++a)
+    {
+      for (int b = a; b < dim; ++b)
+      {
+        basis.Add((a == 0) + (b == 0), (a == 1) + (b == 1), (a == 2) + (b == 2));
+      }
+    }
+    for (int a = 1; alongWall && a < dim; ++a)
+    {
+      for (int b = a; b < dim; ++b)
+      {
+        basis.Add(1, (a == 1) + (b == 1), (a == 2) + (b == 2));
+      }
+    }
+    return basis;
+  }
+  template <typename T>
+  void Evaluate(const T xi[3], T* m) const
+  {
+    for (int i = 0; i < this->Columns; ++i)
+    {
+      T v = T(1);
+      for (int c = 0; c < 3; ++c)
+      {
+        for (int e = 0; e < this->Exponents[i][c]; ++e)
+        {
+          v *= xi[c];
+        }
+      }
+      m[i] = v;
     }
   }
-}
+};
 
-/// Rows 1..dim of N^-1 (the gradient rows), by N Y = [e_1 .. e_dim]; C columns.
+/// Rows 1..dim of N^-1 (the gradient rows), by N Y = [e_1 .. e_dim]: the
+/// normal matrix of `basis` over the samples, C columns.
 template <typename T, int C>
-bool GradientRowsOfInverse(const T (&N)[C][C], int dim, T* Y)
+bool GradientRowsOfInverse(
+  const FitBasis& basis, const T (*xi)[3], const T* w, int m, int dim, T* Y)
 {
+  T N[C][C] = {};
+  for (int k = 0; k < m; ++k)
+  {
+    T mono[C];
+    basis.Evaluate(xi[k], mono);
+    for (int i = 0; i < C; ++i)
+    {
+      const T wi = w[k] * mono[i];
+      for (int j = 0; j < C; ++j)
+      {
+        N[i][j] += wi * mono[j];
+      }
+    }
+  }
   T rhs[C][3] = {};
   for (int a = 0; a < dim; ++a)
   {
     rhs[1 + a][a] = T(1);
   }
-  return CholeskySolveScaled<T, C, 3>(N, rhs, Y, T(1e-8));
+  // The constant and the gradient must be determined; a higher term that
+  // the samples do not determine (e.g. a curvature across a one-sided
+  // stencil) is left out.
+  return CholeskySolveScaled<T, C, 3>(N, rhs, Y, T(1e-6), 1 + dim);
+}
+
+template <typename T>
+bool GradientRows(const FitBasis& basis, const T (*xi)[3], const T* w, int m, int dim, T* Y)
+{
+  switch (basis.Columns)
+  {
+    case 3:
+      return GradientRowsOfInverse<T, 3>(basis, xi, w, m, dim, Y);
+    case 6:
+      return GradientRowsOfInverse<T, 6>(basis, xi, w, m, dim, Y);
+    case 7:
+      return GradientRowsOfInverse<T, 7>(basis, xi, w, m, dim, Y);
+    case 10:
+      return GradientRowsOfInverse<T, 10>(basis, xi, w, m, dim, Y);
+    case 13:
+      return GradientRowsOfInverse<T, 13>(basis, xi, w, m, dim, Y);
+    default:
+      return false;
+  }
 }
 } // namespace detail
 
@@ -248,8 +327,11 @@ WallFitStatus QuadraticWallFitWeights(const T xf[3], const T n[3], const T* xc, 
     }
   }
   info.Dimension = dim;
-  const int cols = 1 + dim + dim * (dim + 1) / 2;
-  if (m < cols)
+  // The richer basis first (the wall gradient varying along the wall), then
+  // the plain quadratic where the samples do not determine it.
+  const detail::FitBasis rich = detail::FitBasis::Make(dim, true);
+  const detail::FitBasis plain = detail::FitBasis::Make(dim, false);
+  if (m < plain.Columns)
   {
     return WallFitStatus::TooFewSamples;
   }
@@ -268,95 +350,7 @@ WallFitStatus QuadraticWallFitWeights(const T xf[3], const T n[3], const T* xc, 
     }
     w[k] = T(1) / (xi2 + T(1e-4));
   }
-  // Y: rows 1..dim of N^-1, N = sum_k w_k m_k m_k^T; then the weight of
-  // sample k for d/dxi_a is w_k (m_k . Y_a).
-  T Y[10 * 3];
-  bool solved = false;
-  if (dim == 3)
-  {
-    // The product of two quadratic monomials is a monomial of degree <= 4:
-    // the 55 distinct entries of N are 35 moments sum_k w_k x^a y^b z^c, in
-    // the lexicographic order of (a, b, c); Moment[i][j] is the moment of
-    // the product of monomials i and j.
-    static constexpr int Moment[10][10] = { { 0, 15, 5, 1, 25, 19, 16, 9, 6, 2 }, { 15, 25, 19, 16, 31, 28, 26, 22, 20, 17 }, { 5, 19, 9, 6, 28, 22, 20, 12, 10, 7 }, { 1, 16, 6, 2, 26, 20, 17, 10, 7, 3 }, { 25, 31, 28, 26, 34, 33, 32, 30, 29, 27 }, { 19, 28, 22, 20, 33, 30, 29, 24, 23, 21 }, { 16, 26, 20, 17, 32, 29, 27, 23, 21, 18 }, { 9, 22, 12, 10, 30, 24, 23, 14, 13, 11 }, { 6, 20, 10, 7, 29, 23, 21, 13, 11, 8 }, { 2, 17, 7, 3, 27, 21, 18, 11, 8, 4 } };
-    T M[35] = {};
-    for (int k = 0; k < m; ++k)
-    {
-      T xp[5], yp[5], zp[5];
-      xp[0] = w[k];
-      yp[0] = zp[0] = T(1);
-      for (int p = 1; p < 5; ++p)
-      {
-        xp[p] = xp[p - 1] * xi[k][0];
-        yp[p] = yp[p - 1] * xi[k][1];
-        zp[p] = zp[p - 1] * xi[k][2];
-      }
-        M[0] += xp[0] * yp[0] * zp[0];
-        M[1] += xp[0] * yp[0] * zp[1];
-        M[2] += xp[0] * yp[0] * zp[2];
-        M[3] += xp[0] * yp[0] * zp[3];
-        M[4] += xp[0] * yp[0] * zp[4];
-        M[5] += xp[0] * yp[1] * zp[0];
-        M[6] += xp[0] * yp[1] * zp[1];
-        M[7] += xp[0] * yp[1] * zp[2];
-        M[8] += xp[0] * yp[1] * zp[3];
-        M[9] += xp[0] * yp[2] * zp[0];
-        M[10] += xp[0] * yp[2] * zp[1];
-        M[11] += xp[0] * yp[2] * zp[2];
-        M[12] += xp[0] * yp[3] * zp[0];
-        M[13] += xp[0] * yp[3] * zp[1];
-        M[14] += xp[0] * yp[4] * zp[0];
-        M[15] += xp[1] * yp[0] * zp[0];
-        M[16] += xp[1] * yp[0] * zp[1];
-        M[17] += xp[1] * yp[0] * zp[2];
-        M[18] += xp[1] * yp[0] * zp[3];
-        M[19] += xp[1] * yp[1] * zp[0];
-        M[20] += xp[1] * yp[1] * zp[1];
-        M[21] += xp[1] * yp[1] * zp[2];
-        M[22] += xp[1] * yp[2] * zp[0];
-        M[23] += xp[1] * yp[2] * zp[1];
-        M[24] += xp[1] * yp[3] * zp[0];
-        M[25] += xp[2] * yp[0] * zp[0];
-        M[26] += xp[2] * yp[0] * zp[1];
-        M[27] += xp[2] * yp[0] * zp[2];
-        M[28] += xp[2] * yp[1] * zp[0];
-        M[29] += xp[2] * yp[1] * zp[1];
-        M[30] += xp[2] * yp[2] * zp[0];
-        M[31] += xp[3] * yp[0] * zp[0];
-        M[32] += xp[3] * yp[0] * zp[1];
-        M[33] += xp[3] * yp[1] * zp[0];
-        M[34] += xp[4] * yp[0] * zp[0];
-    }
-    T N[10][10];
-    for (int i = 0; i < 10; ++i)
-    {
-      for (int j = 0; j < 10; ++j)
-      {
-        N[i][j] = M[Moment[i][j]];
-      }
-    }
-    solved = detail::GradientRowsOfInverse<T, 10>(N, 3, Y);
-  }
-  else
-  {
-    T N6[6][6] = {};
-    T N3[3][3] = {};
-    for (int k = 0; k < m; ++k)
-    {
-      T mono[10];
-      detail::QuadraticMonomials(xi[k], dim, mono);
-      for (int i = 0; i < cols; ++i)
-      {
-        for (int j = 0; j < cols; ++j)
-        {
-          (dim == 2 ? N6[i][j] : N3[i][j]) += w[k] * mono[i] * mono[j];
-        }
-      }
-    }
-    solved = dim == 2 ? detail::GradientRowsOfInverse<T, 6>(N6, 2, Y)
-                      : detail::GradientRowsOfInverse<T, 3>(N3, 1, Y);
-  }
-  // gamma_k = sum_a c_ka e_a / size.
+  // gamma_k = sum_a c_ka e_a / size, c_ka the weight of sample k in d u/d xi_a.
   auto store = [&](int k, const T* c) {
     for (int j = 0; j < 3; ++j)
     {
@@ -368,16 +362,28 @@ WallFitStatus QuadraticWallFitWeights(const T xf[3], const T n[3], const T* xc, 
       gamma[k][j] = g * inv;
     }
   };
-  if (solved)
+  // Normal equations: Y = rows 1..dim of N^-1, N = sum_k w_k m_k m_k^T; the
+  // weight of sample k for d/dxi_a is then w_k (m_k . Y_a).
+  bool solved = false;
+  for (const detail::FitBasis* basis : { &rich, &plain })
   {
+    if (solved || m < basis->Columns || (basis == &rich && rich.Columns == plain.Columns))
+    {
+      continue;
+    }
+    T Y[13 * 3];
+    if (!detail::GradientRows(*basis, xi, w, m, dim, Y))
+    {
+      continue;
+    }
     for (int k = 0; k < m; ++k)
     {
-      T mono[10];
-      detail::QuadraticMonomials(xi[k], dim, mono);
+      T mono[13];
+      basis->Evaluate(xi[k], mono);
       T c[3] = { 0, 0, 0 };
       for (int a = 0; a < dim; ++a)
       {
-        for (int i = 0; i < cols; ++i)
+        for (int i = 0; i < basis->Columns; ++i)
         {
           c[a] += mono[i] * Y[i * 3 + a];
         }
@@ -385,12 +391,14 @@ WallFitStatus QuadraticWallFitWeights(const T xf[3], const T n[3], const T* xc, 
       }
       store(k, c);
     }
+    solved = true;
   }
-  else
+  if (!solved)
   {
     // The normal equations would lose digits: Householder QR of the weighted
-    // design matrix, right-hand sides diag(sqrt(w)), so that column k of the
-    // solution is the weight of sample k.
+    // design matrix of the plain quadratic, right-hand sides diag(sqrt(w)),
+    // so that column k of the solution is the weight of sample k.
+    const int cols = plain.Columns;
     T A[WallFitMaxSamples * 10];
     T B[WallFitMaxSamples * WallFitMaxSamples] = {};
     T X[10 * WallFitMaxSamples];
@@ -398,7 +406,7 @@ WallFitStatus QuadraticWallFitWeights(const T xf[3], const T n[3], const T* xc, 
     {
       const T sw = std::sqrt(w[k]);
       T mono[10];
-      detail::QuadraticMonomials(xi[k], dim, mono);
+      plain.Evaluate(xi[k], mono);
       for (int i = 0; i < cols; ++i)
       {
         A[k * cols + i] = sw * mono[i];

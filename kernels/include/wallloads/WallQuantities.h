@@ -116,6 +116,24 @@ void FaceVelocityGradient(const T* xyz, const T* u, int numCorners, const T n[3]
   }
 }
 
+/**
+ * The wall-normal part of the shear from a gradient G (row-major
+ * du_i/dx_j): tau = mu_eff t(G n), the derivative of the tangential
+ * velocity along the normal. The other part, mu_eff t(G^T n), is the
+ * along-wall term above: at a no-slip wall it is the wall velocity's, so a
+ * reconstruction near the wall need not estimate it from the volume.
+ */
+template <typename T>
+inline void NormalDerivativeShear(const T G[9], const T n[3], T muEff, T tau[3])
+{
+  T gn[3];
+  for (int i = 0; i < 3; ++i)
+  {
+    gn[i] = muEff * (G[3 * i] * n[0] + G[3 * i + 1] * n[1] + G[3 * i + 2] * n[2]);
+  }
+  SplitNormalTangential(gn, n, tau);
+}
+
 /// u_tau = sqrt(|tau|/rho) and y+ = d u_tau / nu.
 template <typename T>
 inline void FrictionVelocityAndYPlus(const T tau[3], T rho, T d, T nu, T& utau, T& yplus)

@@ -1,51 +1,127 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #pragma once
 /**
- * Face-to-cell adjacency of Shear Projection: the boundary faces of each
- * volume block, indexed for matching wall faces to their adjacent cell, kept
- * in a cache while the block's mesh does not change. Private to the module.
+ * Face-to-cell adjacency of Shear Projection, built once per volume block and
+ * kept while the block's geometry does not change. Private to the module.
  *
- * For each volume block the boundary faces are extracted once (with the id
- * of their adjacent cell) and their centroids put in a point locator. A wall
- * face is matched to the boundary face at its centroid, within a tolerance
- * the caller gives; two matches (the sides of a zero-thickness baffle) are
- * told apart by the wall's stored orientation, taken to point out of the
- * fluid. A boundary face that another volume block also has is an interface
- * between blocks, not a wall.
+ * For one volume block (any vtkDataSet) it holds:
+ * - the boundary faces of the block's owned 3-D cells: a face of an owned
+ *   cell (not a DUPLICATECELL/HIDDENCELL ghost, the one ghost policy of
+ *   WallLoadsPipeline.h) that no other 3-D cell of the block, owned or ghost,
+ *   shares. Faces between an owned cell and a ghost layer (partition faces)
+ *   and the ghost layer's own outer faces are therefore not boundary faces.
+ *   Faces are found from the cells' corner points with a point-to-cell index,
+ *   by face tables of our own per cell kind; quadratic and higher-order cells
+ *   are taken by their corner points (VTK 9.2's surface extraction reports
+ *   face indices instead of cell ids for them, so it is not used). Each face
+ *   keeps its corners ordered out of the volume, its area centroid and its
+ *   adjacent cell;
+ * - for every cell with a boundary face (a "wall cell"), its neighbours: the
+ *   cells sharing a face with it, then the other cells sharing a corner point
+ *   (the nearest MaxStencil, never splitting cells at equal distance), with
+ *   their centres (mean
+ *   of the cell's points) and point ids, so that the per-face loop reads
+ *   plain arrays and calls no VTK cell API (thread-safe, no allocation);
+ * - a uniform-grid index of the face centroids, for matching wall faces that
+ *   have their own points.
+ *
+ * The cache key (MeshKey) is the geometry itself: for explicit meshes the
+ * point, connectivity, cell-type, polyhedron-face and ghost arrays by
+ * identity and modification time (the entry holds references, so an address
+ * cannot be reused by another array); for image data the extent, origin,
+ * spacing and direction; for rectilinear grids the extent and the three
+ * coordinate arrays; for structured grids the extent and the points. Other
+ * dataset kinds are rebuilt on every execution.
  */
+#include "vtkObject.h"
 #include "vtkSmartPointer.h"
 #include "vtkType.h"
 
+#include <cstdint>
+#include <string>
+#include <utility>
 #include <vector>
 
 class vtkDataSet;
-class vtkIdList;
 class vtkPolyData;
-class vtkStaticPointLocator;
 
 namespace wallloads
 {
 
+/// What an adjacency depends on (see the header comment).
+class MeshKey
+{
+public:
+  static MeshKey Of(vtkDataSet* ds);
+  bool SameAs(const MeshKey& other) const;
+  bool Cacheable() const { return this->Known; }
+
+private:
+  bool Known = false;
+  std::string Kind;
+  std::vector<vtkSmartPointer<vtkObject>> Objects;
+  std::vector<vtkMTimeType> Times;
+  std::vector<double> Numbers;
+};
+
+/// Uniform grid of points (face centroids) for radius queries; thread-safe to query.
+class CentroidIndex
+{
+public:
+  void Build(const std::vector<double>& xyz, double cellSize);
+  /// Ids of the points (`xyz`, as given to Build) within `radius` of x, appended to `out`.
+  void Within(const std::vector<double>& xyz, const double x[3], double radius,
+    std::vector<vtkIdType>& out) const;
+
+private:
+  double Origin[3] = { 0, 0, 0 };
+  double Size = 1;
+  int Dims[3] = { 0, 0, 0 };
+  std::vector<vtkIdType> Offsets; ///< per bucket, into Ids
+  std::vector<vtkIdType> Ids;
+};
+
 class WallAdjacency
 {
 public:
-  /// The boundary of one volume block, indexed for matching.
+  /// Neighbours kept per wall cell (face neighbours always are): the nearest
+  /// MaxStencil, and up to TieRoom more at the same distance as the last.
+  static constexpr int MaxStencil = 40;
+  static constexpr int TieRoom = 12;
+
   struct Block
   {
-    // Identity of the mesh the entry was built from.
-    const void* Points = nullptr;
-    vtkMTimeType PointsTime = 0;
-    const void* Cells = nullptr;
-    vtkMTimeType CellsTime = 0;
-    vtkIdType NumPoints = -1, NumCells = -1;
-    double Bounds[6] = { 0, 0, 0, 0, 0, 0 };
+    MeshKey Key;
+    std::uint64_t BuildId = 0;      ///< unique per build (for caches that depend on it)
+    vtkIdType NumVolumeCells = 0;   ///< 3-D cells, owned and ghost
+    vtkIdType NumUnsupported = 0;   ///< 3-D cells of a kind without faces (convex point sets)
+    vtkIdType NumOwnedVolumeCells = 0;
 
-    vtkSmartPointer<vtkPolyData> Faces;          ///< boundary faces, with vtkOriginalCellIds
-    vtkSmartPointer<vtkStaticPointLocator> Near; ///< on the face centroids
-    std::vector<vtkIdType> Cell;                 ///< adjacent cell of each boundary face
-    vtkSmartPointer<vtkDataSet> Mesh;            ///< private copy for neighbour queries
+    // Boundary faces of the owned cells.
+    std::vector<vtkIdType> FaceOffsets; ///< CSR into FaceCorners (size faces + 1)
+    std::vector<vtkIdType> FaceCorners; ///< volume point ids, ordered out of the volume
+    std::vector<double> FaceCentroid;   ///< 3 per face
+    std::vector<int> FaceWallCell;      ///< wall-cell record of each face
 
-    bool Matches(vtkDataSet* ds) const;
+    // Wall cells: cells with at least one boundary face.
+    std::vector<vtkIdType> WallCellId;
+    std::vector<int> WallCellSample;  ///< sample index of the cell itself
+    std::vector<int> StencilOffsets;  ///< CSR into Stencil (size wall cells + 1)
+    std::vector<int> Stencil;         ///< sample indices, face neighbours first
+    std::vector<int> FaceNeighbours;  ///< how many of a record's stencil share a face
+
+    // Sample cells (wall cells and their neighbours), each once.
+    std::vector<vtkIdType> SampleCell;
+    std::vector<double> SampleCentre;          ///< 3 per sample: mean of the cell's points
+    std::vector<vtkIdType> SamplePointOffsets; ///< CSR into SamplePoints
+    std::vector<vtkIdType> SamplePoints;       ///< all point ids of the cell
+
+    CentroidIndex Index; ///< on FaceCentroid
+
+    vtkSmartPointer<vtkPolyData> Surface;     ///< the boundary faces (compact points, no arrays)
+    std::vector<vtkIdType> SurfacePointIds;   ///< volume point id of each surface point
+
+    vtkIdType NumberOfFaces() const { return static_cast<vtkIdType>(this->FaceWallCell.size()); }
     void Build(vtkDataSet* ds);
   };
 
@@ -56,31 +132,13 @@ public:
   std::size_t Size() const { return this->Blocks.size(); }
   const Block& operator[](std::size_t i) const { return this->Blocks[i]; }
 
-  /// A wall face's adjacent cell: block and cell id, or -1 for none.
-  struct Match
-  {
-    int Block = -1;
-    vtkIdType Cell = -1;
-  };
-
-  /**
-   * The adjacent cell of a wall face with centroid `c` and unit normal
-   * `normal` (stored orientation), over every block: the boundary face whose
-   * centroid is nearest within `tol`; with candidates on both sides of the
-   * face, the one on the fluid side (opposite to `normal`).
-   */
-  Match FindAdjacentCell(const double c[3], const double normal[3], double tol,
-    vtkIdList* found, vtkIdList* corners) const;
-
-  /// Whether boundary face centroid `c` of block `block` is also on the
-  /// boundary of another block (an interface between blocks, not a wall).
-  bool IsInterface(std::size_t block, const double c[3], double tol) const;
+  /// Every boundary face, over all blocks, whose centroid lies within `tol`
+  /// of `c`, as (block, face) pairs appended to `out`; `scratch` is reused.
+  void FindFaces(const double c[3], double tol, std::vector<std::pair<int, vtkIdType>>& out,
+    std::vector<vtkIdType>& scratch) const;
 
 private:
   std::vector<Block> Blocks;
 };
-
-/// Mean of the points of a cell (the cell centre Shear Projection uses).
-void CellCentre(vtkDataSet* ds, vtkIdList* cellPoints, double x[3]);
 
 } // namespace wallloads

@@ -3,35 +3,32 @@
 
 #include "WallAdjacency.h"
 #include "WallLoadsPipeline.h"
-#include "wallloads/FaceGeometry.h"
-#include "wallloads/LeastSquaresGradient.h"
-#include "wallloads/NearWallShear.h"
-#include "wallloads/Traction.h"
-#include "wallloads/WallLaw.h"
-#include "wallloads/WallQuantities.h"
+#include "WallShearFaces.h"
 
-#include "vtkCell.h"
 #include "vtkCellData.h"
 #include "vtkCellTypes.h"
 #include "vtkCompositeDataSet.h"
+#include "vtkDataAssembly.h"
+#include "vtkDataAssemblyUtilities.h"
 #include "vtkDataObjectTree.h"
 #include "vtkDataObjectTreeIterator.h"
-#include "vtkDoubleArray.h"
-#include "vtkGenericCell.h"
 #include "vtkIdList.h"
 #include "vtkInformation.h"
 #include "vtkInformationVector.h"
 #include "vtkIntArray.h"
 #include "vtkMultiBlockDataSet.h"
-#include "vtkNew.h"
 #include "vtkObjectFactory.h"
 #include "vtkPointData.h"
+#include "vtkPointSet.h"
+#include "vtkPoints.h"
 #include "vtkPolyData.h"
 #include "vtkSmartPointer.h"
+#include "vtkUnstructuredGrid.h"
 
-#include <cmath>
 #include <algorithm>
+#include <cmath>
 #include <limits>
+#include <set>
 #include <sstream>
 #include <vector>
 
@@ -40,44 +37,31 @@ vtkStandardNewMacro(vtkShearProjection);
 namespace
 {
 using namespace wallloads;
-const double NaN = std::numeric_limits<double>::quiet_NaN();
-} // namespace
 
-struct vtkShearProjection::AdjacencyCache
-{
-  WallAdjacency Blocks;
-};
+/// Faces per chunk of the face loop: progress and abort are checked between chunks.
+constexpr vtkIdType ChunkFaces = 32768;
 
-namespace
+/// Whether a dataset holds a 3-D cell.
+bool HasVolumeCells(vtkDataSet* ds)
 {
-struct VolumeBlock
-{
-  vtkDataSet* Data = nullptr;
-  std::string Name;
-  const WallAdjacency::Block* Index = nullptr;
-  ArrayView Velocity, Gradient, Viscosity, TurbulentViscosity, Density;
-};
-
-struct Settings
-{
-  ArraySelection Velocity, WallVelocity, Gradient, Viscosity, TurbulentViscosity, Density;
-  int Method = 0;
-  double ViscosityValue = 1.8e-5;
-  bool Kinematic = false;
-  double DensityValue = 1;
-  double Kappa = 0.41, B = 5.0;
-};
-
-struct Counts
-{
-  double Faces = 0, Unmatched = 0, OffWall = 0, FellBack = 0, Failed = 0;
-  double NotFaces = 0, Degenerate = 0, Interfaces = 0;
-};
-
-
-bool IsVolume(vtkDataSet* ds)
-{
-  for (vtkIdType c = 0; ds && c < ds->GetNumberOfCells(); ++c)
+  if (!ds)
+  {
+    return false;
+  }
+  if (auto* ug = vtkUnstructuredGrid::SafeDownCast(ds))
+  {
+    const vtkIdType n = ug->GetNumberOfCells();
+    const unsigned char* types = n > 0 ? ug->GetCellTypesArray()->GetPointer(0) : nullptr;
+    for (vtkIdType c = 0; c < n; ++c)
+    {
+      if (vtkCellTypes::GetDimension(types[c]) == 3)
+      {
+        return true;
+      }
+    }
+    return false;
+  }
+  for (vtkIdType c = 0; c < ds->GetNumberOfCells(); ++c)
   {
     if (vtkCellTypes::GetDimension(static_cast<unsigned char>(ds->GetCellType(c))) == 3)
     {
@@ -87,252 +71,112 @@ bool IsVolume(vtkDataSet* ds)
   return false;
 }
 
-
-/// Value of a volume array at a cell: the cell value or the mean over its points.
-void CellValue(const ArrayView& a, vtkIdList* cellPoints, vtkIdType cell, int comps, double* out)
+/// Absolute rounding of a dataset's coordinates: eps of the point type times the largest one.
+double CoordinateRounding(vtkDataSet* ds)
 {
-  for (int k = 0; k < comps; ++k)
+  double bounds[6];
+  ds->GetBounds(bounds);
+  double reach = 0;
+  for (double b : bounds)
   {
-    if (!a.OnPoints)
-    {
-      out[k] = a.Get(cell, k);
-      continue;
-    }
-    double sum = 0;
-    for (vtkIdType j = 0; j < cellPoints->GetNumberOfIds(); ++j)
-    {
-      sum += a.Get(cellPoints->GetId(j), k);
-    }
-    out[k] = sum / static_cast<double>(cellPoints->GetNumberOfIds());
+    reach = std::max(reach, std::isfinite(b) ? std::abs(b) : 0.0);
   }
+  auto* ps = vtkPointSet::SafeDownCast(ds);
+  const bool isFloat = ps && ps->GetPoints() && ps->GetPoints()->GetDataType() == VTK_FLOAT;
+  return (isFloat ? std::numeric_limits<float>::epsilon() : std::numeric_limits<double>::epsilon()) *
+    reach;
 }
 
-/// One wall face: its frame and the adjacent cell (block, id) or none.
-struct WallFace
+/// A wall dataset of the output.
+struct WallBlock
 {
-  FaceFrame<double> Frame;
-  bool Valid = false;
-  bool NotFace = false; ///< a vertex, line or 3D cell among the walls
-  int Block = -1;
-  vtkIdType Cell = -1;
-  double WallVelocity[3] = { 0, 0, 0 };
-  /// Gradient of the wall velocity in the face plane (row-major, du_i/dx_j),
-  /// from corner values; zero without a point-data wall velocity.
-  double WallGradient[9] = { 0, 0, 0, 0, 0, 0, 0, 0, 0 };
+  vtkSmartPointer<vtkDataSet> Out;
+  std::string Name;
+  int BoundaryOf = -1; ///< volume block whose boundary it is, or -1
+  ArrayView WallVelocity;
 };
 
-/// Work objects reused from face to face (no allocation per face).
-struct Scratch
+/// The leaves of a composite input chosen by data-assembly selectors, in
+/// flat (composite index) order, with their names.
+void SelectedLeaves(vtkDataObject* input, const std::vector<std::string>& selectors,
+  const char* assemblyName, std::vector<std::pair<vtkDataSet*, std::string>>& leaves,
+  std::vector<unsigned int>& ids)
 {
-  vtkNew<vtkGenericCell> Cell;
-  vtkNew<vtkIdList> CellPoints;
-  vtkNew<vtkIdList> Neighbours;
-  vtkNew<vtkIdList> NeighbourPoints;
-  std::vector<double> Xk, Uk, Ds, Us;
-};
-
-/// Shear and wall quantities for one face.
-void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scratch& work,
-  double out[9], int& regime, Counts& counts)
-{
-  for (int k = 0; k < 9; ++k)
+  auto* cds = vtkCompositeDataSet::SafeDownCast(input);
+  if (!cds)
   {
-    out[k] = NaN;
-  }
-  regime = UnknownRegime;
-  vtkDataSet* mesh = vb.Index->Mesh;
-  vtkIdList* cellPoints = work.CellPoints;
-  mesh->GetCellPoints(face.Cell, cellPoints);
-  double xP[3], uP[3];
-  CellCentre(mesh, cellPoints, xP);
-  CellValue(vb.Velocity, cellPoints, face.Cell, 3, uP);
-  const double* xf = face.Frame.Centroid;
-  double n[3] = { face.Frame.Normal[0], face.Frame.Normal[1], face.Frame.Normal[2] };
-  const double toP[3] = { xP[0] - xf[0], xP[1] - xf[1], xP[2] - xf[2] };
-  double d = Dot(toP, n);
-  if (d < 0)
-  {
-    for (double& v : n)
-    {
-      v = -v;
-    }
-    d = -d;
-  }
-  if (!(d > 0) || !std::isfinite(d))
-  {
-    ++counts.OffWall;
     return;
   }
-  // Geometry is known even if the reconstruction below fails.
-  for (int k = 0; k < 3; ++k)
+  vtkSmartPointer<vtkDataAssembly> assembly;
+  const std::string name = assemblyName ? assemblyName : "";
+  if (!name.empty() && name != vtkDataAssemblyUtilities::HierarchyName())
   {
-    out[3 + k] = n[k];
+    assembly = vtkDataAssemblyUtilities::GetDataAssembly(name.c_str(), cds);
   }
-  out[6] = d;
-  double rho = s.DensityValue;
-  if (vb.Density.Valid())
+  if (!assembly)
   {
-    CellValue(vb.Density, cellPoints, face.Cell, 1, &rho);
+    assembly = vtkSmartPointer<vtkDataAssembly>::New();
+    vtkDataAssemblyUtilities::GenerateHierarchy(cds, assembly);
   }
-  double mu = s.ViscosityValue;
-  if (vb.Viscosity.Valid())
+  ids = vtkDataAssemblyUtilities::GetSelectedCompositeIds(selectors, assembly, nullptr, true);
+  const std::set<unsigned int> chosen(ids.begin(), ids.end());
+  auto* tree = vtkDataObjectTree::SafeDownCast(input);
+  if (!tree)
   {
-    CellValue(vb.Viscosity, cellPoints, face.Cell, 1, &mu);
-  }
-  double mut = 0;
-  if (vb.TurbulentViscosity.Valid())
-  {
-    CellValue(vb.TurbulentViscosity, cellPoints, face.Cell, 1, &mut);
-  }
-  const double factor = s.Kinematic ? rho : 1.0;
-  const double muMolecular = factor * mu;
-  const double muEff = factor * (mu + mut);
-  const double nu = muMolecular / rho;
-  const double* uW = face.WallVelocity;
-
-  // Face neighbours of the adjacent cell (gradient and wall fit).
-  std::vector<double>& xk = work.Xk;
-  std::vector<double>& uk = work.Uk;
-  xk.clear();
-  uk.clear();
-  auto gather = [&]() {
-    vtkGenericCell* scratch = work.Cell;
-    mesh->GetCell(face.Cell, scratch);
-    vtkIdList* neighbours = work.Neighbours;
-    vtkIdList* nbPoints = work.NeighbourPoints;
-    for (int f = 0; f < scratch->GetNumberOfFaces(); ++f)
-    {
-      vtkCell* cf = scratch->GetFace(f);
-      mesh->GetCellNeighbors(face.Cell, cf->GetPointIds(), neighbours);
-      for (vtkIdType j = 0; j < neighbours->GetNumberOfIds(); ++j)
-      {
-        const vtkIdType nb = neighbours->GetId(j);
-        mesh->GetCellPoints(nb, nbPoints);
-        double x[3], u[3];
-        CellCentre(mesh, nbPoints, x);
-        CellValue(vb.Velocity, nbPoints, nb, 3, u);
-        xk.insert(xk.end(), x, x + 3);
-        uk.insert(uk.end(), u, u + 3);
-      }
-    }
-  };
-
-  double tau[3] = { NaN, NaN, NaN };
-  bool alongWall = false; // the method took only the wall-normal derivative
-  switch (s.Method)
-  {
-    case vtkShearProjection::NEAR_WALL_DIFFERENCE:
-      NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
-      alongWall = true;
-      break;
-    case vtkShearProjection::GRADIENT_TENSOR:
-    {
-      double G[9];
-      if (vb.Gradient.Valid())
-      {
-        CellValue(vb.Gradient, cellPoints, face.Cell, 9, G);
-      }
-      else
-      {
-        gather();
-        WallConstraint<double> wall;
-        wall.Point = xf;
-        wall.Value = uW;
-        if (LeastSquaresGradient<double>(xP, uP, xk.data(), uk.data(), nullptr,
-              static_cast<int>(xk.size() / 3), G, &wall) != GradientStatus::Ok)
-        {
-          ++counts.Failed;
-          return;
-        }
-      }
-      GradientWallShear(G, muEff, n, tau);
-      break;
-    }
-    case vtkShearProjection::WALL_FIT:
-    {
-      gather();
-      std::vector<double>& ds = work.Ds;
-      std::vector<double>& us = work.Us;
-      ds.assign(1, d);
-      us.assign(uP, uP + 3);
-      // Only neighbours stacked off the wall (NearWallShear.h).
-      for (std::size_t j = 0; j < xk.size() / 3; ++j)
-      {
-        const double off[3] = { xk[3 * j] - xf[0], xk[3 * j + 1] - xf[1], xk[3 * j + 2] - xf[2] };
-        double dj;
-        if (StackedOffWall(off, n, d, dj))
-        {
-          ds.push_back(dj);
-          us.insert(us.end(), &uk[3 * j], &uk[3 * j] + 3);
-        }
-      }
-      const ShearStatus st = WallFitShear<double>(
-        ds.data(), us.data(), nullptr, static_cast<int>(ds.size()), uW, n, muEff, tau);
-      if (st == ShearStatus::Degenerate || st == ShearStatus::SingleSample)
-      {
-        ++counts.FellBack; // no distinct distances: the near-wall difference
-        NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
-      }
-      alongWall = true;
-      break;
-    }
-    case vtkShearProjection::WALL_LAW:
-      if (WallLawShear(uP, uW, n, d, nu, rho, s.Kappa, s.B, tau) != WallLawStatus::Ok)
-      {
-        ++counts.Failed;
-        return;
-      }
-      break;
-  }
-  if (alongWall)
-  {
-    // The other half of tau n (WallQuantities.h); known only where the wall
-    // velocity is point data (WallGradient is zero otherwise).
-    AddAlongWallShear(face.WallGradient, n, muEff, tau);
-  }
-  if (!AllFinite(tau, 3))
-  {
-    ++counts.Failed;
     return;
   }
-  double utau, yplus;
-  FrictionVelocityAndYPlus(tau, rho, d, nu, utau, yplus);
-  for (int k = 0; k < 3; ++k)
+  vtkSmartPointer<vtkDataObjectTreeIterator> it;
+  it.TakeReference(tree->NewTreeIterator());
+  it->SkipEmptyNodesOff();
+  it->VisitOnlyLeavesOn();
+  it->TraverseSubTreeOn();
+  for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
   {
-    out[k] = tau[k];
-    out[3 + k] = n[k];
-  }
-  out[6] = d;
-  out[7] = utau;
-  out[8] = yplus;
-  regime = NearWallRegime(yplus);
-}
-
-template <typename I, typename P>
-void FaceFrames(vtkDataSet* wall, std::vector<WallFace>& faces)
-{
-  FaceTopology<I> topo;
-  MakeFaceTopology<I>(wall, topo);
-  const PointView pv = MakePointView(wall);
-  const P* pts = static_cast<const P*>(pv.Data);
-  faces.assign(static_cast<std::size_t>(wall->GetNumberOfCells()), WallFace());
-  for (vtkIdType c = 0; c < wall->GetNumberOfCells(); ++c)
-  {
-    I buffer[4];
-    const I* ids = nullptr;
-    const int n = topo.Corners(c, ids, buffer);
-    faces[c].NotFace = n == 0;
-    faces[c].Valid = n > 0 && pts && ComputeFaceFrame<double>(pts, ids, n, faces[c].Frame) == FaceStatus::Ok;
+    if (chosen.count(it->GetCurrentFlatIndex()))
+    {
+      leaves.emplace_back(vtkDataSet::SafeDownCast(it->GetCurrentDataObject()), LeafName(it));
+    }
   }
 }
 
+/// The boundary faces of a volume block as an output dataset: the cached
+/// geometry with the volume's point data and each face's adjacent-cell data.
+vtkSmartPointer<vtkPolyData> BoundaryOutput(const VolumeBlock& vb)
+{
+  const WallAdjacency::Block& adj = *vb.Adjacency;
+  auto pd = vtkSmartPointer<vtkPolyData>::New();
+  pd->ShallowCopy(adj.Surface);
+  const vtkIdType np = static_cast<vtkIdType>(adj.SurfacePointIds.size());
+  const vtkIdType nf = adj.NumberOfFaces();
+  auto from = vtkSmartPointer<vtkIdList>::New();
+  from->SetNumberOfIds(np);
+  std::copy(adj.SurfacePointIds.begin(), adj.SurfacePointIds.end(), from->GetPointer(0));
+  pd->GetPointData()->CopyAllocate(vb.Data->GetPointData(), np);
+  pd->GetPointData()->CopyData(vb.Data->GetPointData(), from.Get(), vtkIdType(0));
+  from->SetNumberOfIds(nf);
+  for (vtkIdType f = 0; f < nf; ++f)
+  {
+    from->SetId(f, adj.WallCellId[adj.FaceWallCell[f]]);
+  }
+  pd->GetCellData()->CopyAllocate(vb.Data->GetCellData(), nf);
+  pd->GetCellData()->CopyData(vb.Data->GetCellData(), from.Get(), vtkIdType(0));
+  return pd;
+}
 } // namespace
+
+struct vtkShearProjection::AdjacencyCache
+{
+  WallAdjacency Blocks;
+  std::vector<WallFaceCache> Walls; ///< per output wall dataset, in order
+  std::string GradientNoted;        ///< the gradient array the user was warned about
+};
 
 //------------------------------------------------------------------------------
 vtkShearProjection::vtkShearProjection()
   : Cache(new AdjacencyCache)
 {
   this->SetNumberOfInputPorts(2);
+  this->SetWallBlockAssembly(vtkDataAssemblyUtilities::HierarchyName());
   for (int i = VELOCITY_ARRAY; i <= DENSITY_ARRAY; ++i)
   {
     this->SetInputArrayToProcess(
@@ -340,7 +184,39 @@ vtkShearProjection::vtkShearProjection()
   }
 }
 
-vtkShearProjection::~vtkShearProjection() = default;
+vtkShearProjection::~vtkShearProjection()
+{
+  this->SetWallBlockAssembly(nullptr);
+}
+
+void vtkShearProjection::AddWallBlockSelector(const char* selector)
+{
+  if (selector && *selector)
+  {
+    this->WallBlockSelectors.emplace_back(selector);
+    this->Modified();
+  }
+}
+
+void vtkShearProjection::ClearWallBlockSelectors()
+{
+  if (!this->WallBlockSelectors.empty())
+  {
+    this->WallBlockSelectors.clear();
+    this->Modified();
+  }
+}
+
+int vtkShearProjection::GetNumberOfWallBlockSelectors() const
+{
+  return static_cast<int>(this->WallBlockSelectors.size());
+}
+
+const char* vtkShearProjection::GetWallBlockSelector(int i) const
+{
+  return i >= 0 && i < this->GetNumberOfWallBlockSelectors() ? this->WallBlockSelectors[i].c_str()
+                                                             : nullptr;
+}
 
 //------------------------------------------------------------------------------
 int vtkShearProjection::FillInputPortInformation(int port, vtkInformation* info)
@@ -409,7 +285,7 @@ int vtkShearProjection::RequestData(
     inputVector[1]->GetNumberOfInformationObjects() ? vtkDataObject::GetData(inputVector[1], 0) : nullptr;
   vtkDataObject* output = vtkDataObject::GetData(outputVector, 0);
 
-  Settings s;
+  ShearSettings s;
   s.Velocity = SelectedArray(this, VELOCITY_ARRAY);
   s.WallVelocity = SelectedArray(this, WALL_VELOCITY_ARRAY);
   s.Gradient = SelectedArray(this, VELOCITY_GRADIENT_ARRAY);
@@ -422,77 +298,108 @@ int vtkShearProjection::RequestData(
   s.DensityValue = this->Density;
   s.Kappa = this->WallLawKappa;
   s.B = this->WallLawB;
+
+  // Every check below only records the first problem; the ranks agree on
+  // the outcome with one collective before any of them fails.
+  std::string error;
+  auto fail = [&error](const std::string& message) {
+    if (error.empty())
+    {
+      error = message;
+    }
+  };
   if (!s.Velocity.Set())
   {
-    vtkErrorMacro("Shear Projection needs a Velocity array (3 components) on the volume.");
-    return 0;
+    fail("Shear Projection needs a Velocity array (3 components) on the volume.");
+  }
+  if (!s.Density.Set() && !(this->Density > 0 && std::isfinite(this->Density)))
+  {
+    std::ostringstream os;
+    os << "Density is " << this->Density
+       << " kg/m^3; it must be positive (it divides the friction velocity and y+).";
+    fail(os.str());
+  }
+  if (!(this->Viscosity >= 0 && std::isfinite(this->Viscosity)))
+  {
+    std::ostringstream os;
+    os << "Viscosity is " << this->Viscosity << "; it must not be negative.";
+    fail(os.str());
   }
 
-  // Volume blocks, their arrays and their (cached) boundaries.
-  std::vector<Leaf> all;
+  // Volume blocks (leaves with 3-D cells) and their arrays; the other
+  // leaves are patches (or empty pieces).
+  std::vector<Leaf> leaves;
   std::vector<std::string> regionNames; // not used: volume blocks are not regions
-  ListLeaves(volumeIn, all, regionNames);
+  ListLeaves(volumeIn, leaves, regionNames);
   std::vector<VolumeBlock> volume;
-  std::string error;
-  WallAdjacency& cache = this->Cache->Blocks;
-  for (const Leaf& leaf : all)
+  double surfaceCells = 0;
+  for (const Leaf& leaf : leaves)
   {
-    if (leaf.Data && error.empty() && !CheckGhostArrays(leaf.Data, leaf.Name, error))
+    if (!leaf.Data)
     {
       continue;
     }
-    if (!IsVolume(leaf.Data))
+    std::string ghostError;
+    if (!CheckGhostArrays(leaf.Data, leaf.Name, ghostError))
     {
-      continue; // boundary patches of a composite reader, or empty pieces
+      fail(ghostError);
+      continue;
+    }
+    if (!HasVolumeCells(leaf.Data))
+    {
+      surfaceCells += static_cast<double>(leaf.Data->GetNumberOfCells());
+      continue;
     }
     VolumeBlock vb;
     vb.Data = leaf.Data;
     vb.Name = leaf.Name;
+    vb.Rounding = CoordinateRounding(leaf.Data);
     auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
-      if (!sel.Set() || !error.empty())
+      if (!sel.Set())
       {
         return;
       }
-      vtkDataArray* a = FindSelectedArray(vb.Data, sel, comps, role, vb.Name, error);
+      std::string arrayError;
+      vtkDataArray* a = FindSelectedArray(vb.Data, sel, comps, role, vb.Name, arrayError);
+      if (!a)
+      {
+        fail(arrayError);
+      }
       view = MakeArrayView(a, sel.OnPoints);
     };
     fetch(s.Velocity, 3, "Velocity", vb.Velocity);
-    fetch(s.Gradient, 9, "Velocity gradient", vb.Gradient);
-    fetch(s.Viscosity, 1, "Viscosity", vb.Viscosity);
-    fetch(s.TurbulentViscosity, 1, "Turbulent viscosity", vb.TurbulentViscosity);
-    fetch(s.Density, 1, "Density", vb.Density);
+    fetch(s.Gradient, 9, "Velocity Gradient", vb.Gradient);
+    fetch(s.Viscosity, 1, "Viscosity Array", vb.Viscosity);
+    fetch(s.TurbulentViscosity, 1, "Turbulent Viscosity Array", vb.TurbulentViscosity);
+    fetch(s.Density, 1, "Density Array", vb.Density);
     volume.push_back(vb);
   }
-  // Reuse a cached boundary for every block whose mesh is unchanged.
+  this->UpdateProgress(0.05);
+
+  // The adjacency of every volume block (cached while the geometry holds).
+  WallAdjacency& adjacency = this->Cache->Blocks;
   {
     std::vector<vtkDataSet*> meshes;
     for (const VolumeBlock& vb : volume)
     {
       meshes.push_back(vb.Data);
     }
-    this->NumberOfAdjacencyBuilds += cache.Update(meshes);
+    this->NumberOfAdjacencyBuilds += adjacency.Update(meshes);
   }
+  double volumeCells = 0, unsupportedCells = 0;
   for (std::size_t i = 0; i < volume.size(); ++i)
   {
-    volume[i].Index = &cache[i];
+    volume[i].Adjacency = &adjacency[i];
+    volumeCells += static_cast<double>(adjacency[i].NumVolumeCells);
+    unsupportedCells += static_cast<double>(adjacency[i].NumUnsupported);
   }
+  this->UpdateProgress(0.3);
 
-  double failed[1] = { error.empty() ? 0.0 : 1.0 };
-  GlobalMax(failed, 1);
-  if (failed[0] > 0)
-  {
-    ReportAgreedFailure(this, error);
-    return 0;
-  }
-
-  // The wall datasets of the output, each with its faces matched to cells.
-  struct WallBlock
-  {
-    vtkSmartPointer<vtkDataSet> Out;
-    std::string Name;
-    std::vector<WallFace> Faces;
-  };
+  // The wall datasets of the output: the Walls input, the chosen patch
+  // blocks, or the boundary of every volume block.
   std::vector<WallBlock> walls;
+  std::vector<std::string> patchNames;
+  const bool byBlocks = !wallsIn && !this->WallBlockSelectors.empty();
   if (wallsIn)
   {
     if (auto* tree = vtkDataObjectTree::SafeDownCast(wallsIn))
@@ -527,21 +434,61 @@ int vtkShearProjection::RequestData(
       walls.push_back(wb);
     }
   }
+  else if (byBlocks)
+  {
+    std::vector<std::pair<vtkDataSet*, std::string>> chosen;
+    std::vector<unsigned int> ids;
+    SelectedLeaves(volumeIn, this->WallBlockSelectors, this->WallBlockAssembly, chosen, ids);
+    auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
+    if (!mb || ids.empty())
+    {
+      std::ostringstream os;
+      os << "Wall Blocks selects no block of the input (";
+      for (std::size_t i = 0; i < this->WallBlockSelectors.size(); ++i)
+      {
+        os << (i ? ", " : "") << "'" << this->WallBlockSelectors[i] << "'";
+      }
+      os << "); pick the wall patches among the input's blocks.";
+      fail(os.str());
+    }
+    for (std::size_t i = 0; mb && i < chosen.size(); ++i)
+    {
+      WallBlock wb;
+      vtkDataSet* leaf = chosen[i].first;
+      if (leaf && HasVolumeCells(leaf))
+      {
+        fail("Wall Blocks selects block '" + chosen[i].second +
+          "', which holds 3-D cells (the volume); select its wall patches instead.");
+      }
+      if (leaf)
+      {
+        wb.Out.TakeReference(leaf->NewInstance());
+        wb.Out->ShallowCopy(leaf);
+      }
+      else
+      {
+        wb.Out = vtkSmartPointer<vtkPolyData>::New(); // held by another rank
+      }
+      wb.Name = chosen[i].second;
+      mb->SetBlock(static_cast<unsigned int>(i), wb.Out);
+      mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
+      walls.push_back(wb);
+    }
+  }
   else
   {
     auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
     for (std::size_t i = 0; i < volume.size(); ++i)
     {
       WallBlock wb;
-      auto pd = vtkSmartPointer<vtkPolyData>::New();
-      pd->ShallowCopy(volume[i].Index->Faces);
-      pd->GetCellData()->RemoveArray("vtkOriginalCellIds");
-      wb.Out = pd;
+      auto pd = BoundaryOutput(volume[i]);
       wb.Name = volume[i].Name.empty() ? std::string("boundary") : volume[i].Name + " boundary";
+      wb.BoundaryOf = static_cast<int>(i);
       if (mb)
       {
         mb->SetBlock(static_cast<unsigned int>(i), pd);
         mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
+        wb.Out = pd;
       }
       else
       {
@@ -550,194 +497,222 @@ int vtkShearProjection::RequestData(
       }
       walls.push_back(wb);
     }
+    for (const Leaf& leaf : leaves)
+    {
+      if (leaf.Data && !HasVolumeCells(leaf.Data) && leaf.Data->GetNumberOfCells() > 0)
+      {
+        patchNames.push_back(leaf.Name);
+      }
+    }
+  }
+  // The wall velocity on every wall block (before any rank may fail).
+  for (WallBlock& wb : walls)
+  {
+    std::string ghostError;
+    if (!CheckGhostArrays(wb.Out, wb.Name, ghostError))
+    {
+      fail(ghostError);
+    }
+    else if (s.WallVelocity.Set() && wb.Out->GetNumberOfCells() > 0)
+    {
+      std::string arrayError;
+      vtkDataArray* a =
+        FindSelectedArray(wb.Out, s.WallVelocity, 3, "Wall Velocity", wb.Name, arrayError);
+      if (!a)
+      {
+        fail(arrayError);
+      }
+      wb.WallVelocity = MakeArrayView(a, s.WallVelocity.OnPoints);
+    }
   }
 
-  Counts counts;
-  std::ostringstream unmatchedReport;
-  Scratch scratch;
+  // One collective: the outcome of every check, and what the ranks hold.
+  double agreed[3] = { error.empty() ? 0.0 : 1.0, volumeCells, surfaceCells };
+  GlobalSum(agreed, 3);
+  if (agreed[0] > 0)
+  {
+    ReportAgreedFailure(this, error);
+    output->Initialize();
+    return 0;
+  }
+  if (agreed[1] == 0)
+  {
+    if (ProcessRank() == 0)
+    {
+      if (agreed[2] > 0)
+      {
+        vtkErrorMacro("Shear Projection needs the fluid volume (3-D cells) on Input; it holds "
+          << static_cast<vtkIdType>(agreed[2])
+          << " surface cells and no 3-D cell. Connect the volume to Input and the wall "
+             "surfaces to Walls.");
+      }
+      else
+      {
+        vtkErrorMacro("Shear Projection's Input holds no 3-D cells (no volume): nothing to "
+                      "project.");
+      }
+    }
+    output->Initialize();
+    return 0;
+  }
+
+  // The per-face loop, in chunks (progress, abort).
+  ShearCounts counts;
+  std::vector<double> unmatchedPerBlock(walls.size(), 0);
+  vtkIdType totalFaces = 0, doneFaces = 0;
+  for (const WallBlock& wb : walls)
+  {
+    totalFaces += wb.Out->GetNumberOfCells();
+  }
+  this->Cache->Walls.resize(walls.size());
   for (std::size_t w = 0; w < walls.size(); ++w)
   {
     WallBlock& wb = walls[w];
     vtkDataSet* out = wb.Out;
-    const bool wallFloat = MakePointView(out).IsFloat;
-    DispatchFaces(out, wallFloat, [&](auto id, auto pt) {
-      FaceFrames<decltype(id), decltype(pt)>(out, wb.Faces);
-    });
-    // Wall velocity (optional, on the walls).
-    ArrayView wallVelocity;
-    if (s.WallVelocity.Set() && out->GetNumberOfCells() > 0)
-    {
-      std::string werror;
-      vtkDataArray* a = FindSelectedArray(out, s.WallVelocity, 3, "Wall velocity", wb.Name, werror);
-      if (!a)
-      {
-        vtkErrorMacro(<< werror);
-        return 0;
-      }
-      wallVelocity = MakeArrayView(a, s.WallVelocity.OnPoints);
-    }
-    // Match faces to cells: directly for extracted boundaries, by centroid otherwise.
-    double unmatched = 0;
-    auto corners = vtkSmartPointer<vtkIdList>::New();
-    auto found = vtkSmartPointer<vtkIdList>::New();
-    std::vector<double> cornerXyz, cornerU;
-    for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
-    {
-      WallFace& face = wb.Faces[f];
-      if (face.NotFace)
-      {
-        ++counts.NotFaces;
-        continue;
-      }
-      if (!face.Valid)
-      {
-        ++counts.Degenerate;
-        continue;
-      }
-      // Match within 1e-4 of the face size, widened by the rounding of the
-      // coordinates (float points far from the origin).
-      const double* c = face.Frame.Centroid;
-      const double reach = std::max(std::abs(c[0]), std::max(std::abs(c[1]), std::abs(c[2])));
-      const double tol = 1e-4 * std::sqrt(face.Frame.Area) + (wallFloat ? 1e-6 : 1e-13) * reach;
-      if (!wallsIn)
-      {
-        face.Block = static_cast<int>(w);
-        face.Cell = cache[w].Cell[f];
-        // A face that another volume block also has is an interface, not a wall.
-        if (face.Cell >= 0 && cache.IsInterface(w, c, tol))
-        {
-          face.Cell = -1;
-          ++counts.Interfaces;
-        }
-        if (face.Cell < 0)
-        {
-          continue;
-        }
-      }
-      else
-      {
-        const WallAdjacency::Match m = cache.FindAdjacentCell(c, face.Frame.Normal, tol, found, corners);
-        face.Block = m.Block;
-        face.Cell = m.Cell;
-      }
-      if (face.Cell < 0)
-      {
-        ++unmatched;
-        continue;
-      }
-      if (wallVelocity.Valid())
-      {
-        out->GetCellPoints(f, corners);
-        const vtkIdType nc = corners->GetNumberOfIds();
-        for (int k = 0; k < 3; ++k)
-        {
-          if (!wallVelocity.OnPoints)
-          {
-            face.WallVelocity[k] = wallVelocity.Get(f, k);
-            continue;
-          }
-          double sum = 0;
-          for (vtkIdType j = 0; j < nc; ++j)
-          {
-            sum += wallVelocity.Get(corners->GetId(j), k);
-          }
-          face.WallVelocity[k] = sum / static_cast<double>(nc);
-        }
-        if (wallVelocity.OnPoints)
-        {
-          cornerXyz.resize(3 * nc);
-          cornerU.resize(3 * nc);
-          for (vtkIdType j = 0; j < nc; ++j)
-          {
-            out->GetPoint(corners->GetId(j), &cornerXyz[3 * j]);
-            for (int k = 0; k < 3; ++k)
-            {
-              cornerU[3 * j + k] = wallVelocity.Get(corners->GetId(j), k);
-            }
-          }
-          FaceVelocityGradient(cornerXyz.data(), cornerU.data(), static_cast<int>(nc),
-            face.Frame.Normal, face.Frame.Area, face.WallGradient);
-        }
-      }
-    }
-    if (unmatched > 0)
-    {
-      unmatchedReport << " " << static_cast<vtkIdType>(unmatched) << " of "
-                      << out->GetNumberOfCells() << " faces of '" << wb.Name << "'";
-    }
-    counts.Unmatched += unmatched;
-    counts.Faces += static_cast<double>(out->GetNumberOfCells());
-
-    double* tau = NewCellDoubleArray(out, "Wall Shear Stress", 3);
-    double* normal = NewCellDoubleArray(out, names::WallNormal, 3);
-    double* distance = NewCellDoubleArray(out, "Wall Distance", 1);
-    double* utau = NewCellDoubleArray(out, "Friction Velocity", 1);
-    double* yplus = NewCellDoubleArray(out, "y+", 1);
+    const vtkIdType nf = out->GetNumberOfCells();
+    NewCellDoubleArray(out, "Wall Shear Stress", 3);
+    NewCellDoubleArray(out, names::WallNormal, 3);
+    NewCellDoubleArray(out, "Wall Distance", 1);
+    NewCellDoubleArray(out, "Friction Velocity", 1);
+    NewCellDoubleArray(out, "y+", 1);
     auto regimes = vtkSmartPointer<vtkIntArray>::New();
     regimes->SetName("Near-Wall Regime");
-    regimes->SetNumberOfTuples(out->GetNumberOfCells());
+    regimes->SetNumberOfTuples(nf);
     out->GetCellData()->AddArray(regimes);
-    for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
+    ShearCounts blockCounts;
+    WallFaceCache& faces = this->Cache->Walls[w];
+    if (!this->GetAbortExecute())
     {
-      const WallFace& face = wb.Faces[f];
-      double r[9];
-      int regime = UnknownRegime;
-      if (face.Cell >= 0)
-      {
-        Reconstruct(s, volume[face.Block], face, scratch, r, regime, counts);
-      }
-      else
-      {
-        for (double& v : r)
-        {
-          v = NaN;
-        }
-      }
-      for (int k = 0; k < 3; ++k)
-      {
-        tau[3 * f + k] = r[k];
-        normal[3 * f + k] = r[3 + k];
-      }
-      distance[f] = r[6];
-      utau[f] = r[7];
-      yplus[f] = r[8];
-      regimes->SetValue(f, regime);
+      PrepareWallFaces(s, volume, adjacency, out, wb.BoundaryOf, faces);
     }
+    for (vtkIdType begin = 0; begin < nf; begin += ChunkFaces)
+    {
+      const vtkIdType end = std::min(nf, begin + ChunkFaces);
+      if (this->GetAbortExecute())
+      {
+        // Faces not computed carry NaN and are reported below.
+        MarkWallFacesNotComputed(out, begin, end);
+        blockCounts.N[ShearCounts::NotComputed] += static_cast<double>(end - begin);
+        continue;
+      }
+      ComputeWallFaces(s, volume, out, wb.WallVelocity, faces, begin, end, blockCounts);
+      doneFaces += end - begin;
+      this->UpdateProgress(0.3 + 0.7 * static_cast<double>(doneFaces) /
+          static_cast<double>(std::max<vtkIdType>(totalFaces, 1)));
+    }
+    unmatchedPerBlock[w] = blockCounts.N[ShearCounts::Unmatched];
+    counts.Add(blockCounts);
   }
 
-  double global[8] = { counts.Faces, counts.Unmatched, counts.OffWall, counts.FellBack,
-    counts.Failed, counts.NotFaces, counts.Degenerate, counts.Interfaces };
-  GlobalSum(global, 8);
-  if (global[5] + global[6] + global[7] > 0 && ProcessRank() == 0)
+  // Reports: global counts, on rank 0 (a rank with unmatched faces names its blocks).
+  double global[ShearCounts::Size + 1];
+  std::copy(counts.N, counts.N + ShearCounts::Size, global);
+  global[ShearCounts::Size] = unsupportedCells;
+  GlobalSum(global, ShearCounts::Size + 1);
+  auto count = [&global](int i) { return static_cast<vtkIdType>(global[i]); };
+  const bool root = ProcessRank() == 0;
+  if (root && !wallsIn && !byBlocks)
+  {
+    std::ostringstream os;
+    os << "Shear Projection: no walls chosen, so all " << count(ShearCounts::Faces)
+       << " boundary faces of the volume are taken as walls (outer boundary, inlets and outlets "
+          "included). Connect the wall surfaces to Walls";
+    if (!patchNames.empty())
+    {
+      os << ", or pick the wall patches in Wall Blocks (patch blocks of the input:";
+      for (std::size_t i = 0; i < patchNames.size() && i < 12; ++i)
+      {
+        os << (i ? ", '" : " '") << patchNames[i] << "'";
+      }
+      os << (patchNames.size() > 12 ? ", ...)" : ")");
+    }
+    os << ".";
+    vtkWarningMacro(<< os.str());
+  }
+  if (root && s.Method == GRADIENT_TENSOR && s.Gradient.Set() &&
+    this->Cache->GradientNoted != s.Gradient.Name)
+  {
+    this->Cache->GradientNoted = s.Gradient.Name; // said once per filter and array
+    vtkWarningMacro("Shear Projection: Velocity Gradient '"
+      << s.Gradient.Name
+      << "' is taken from the volume at each wall cell's centre. A gradient computed without the "
+         "wall (e.g. by a gradient filter on the volume) is not a wall gradient and underestimates "
+         "the wall shear on coarse near-wall cells (by up to half; see README). Wall fit (second "
+         "order, with no slip at the wall) or Velocity Gradient = None (a least-squares gradient "
+         "with the wall) include the wall.");
+  }
+  if (root && global[ShearCounts::Planar] > 0)
+  {
+    vtkWarningMacro("Shear Projection: the neighbours of "
+      << count(ShearCounts::Planar) << " of " << count(ShearCounts::Faces)
+      << " wall faces span only a plane (a mesh one cell thick, as 2-D cases are stored): their "
+         "gradient was taken in that plane, with derivatives across it set to zero.");
+  }
+  if (root && global[ShearCounts::FitTooFewSamples] + global[ShearCounts::FitIllConditioned] > 0)
+  {
+    vtkWarningMacro("Shear Projection: the wall fit used the near-wall difference (first order) on "
+      << count(ShearCounts::FitTooFewSamples)
+      << " faces whose adjacent cell has fewer neighbours than a quadratic needs, and on "
+      << count(ShearCounts::FitIllConditioned)
+      << " faces whose neighbours do not determine a quadratic (e.g. all on one side).");
+  }
+  if (root && global[ShearCounts::NotFaces] + global[ShearCounts::Degenerate] +
+        global[ShearCounts::Interfaces] >
+      0)
   {
     vtkWarningMacro("Shear Projection: "
-      << static_cast<vtkIdType>(global[5]) << " wall cells that are not faces (vertices, lines), "
-      << static_cast<vtkIdType>(global[6]) << " degenerate wall faces (zero area) and "
-      << static_cast<vtkIdType>(global[7])
+      << count(ShearCounts::NotFaces) << " wall cells that are not faces (vertices, lines), "
+      << count(ShearCounts::Degenerate) << " degenerate wall faces (zero area) and "
+      << count(ShearCounts::Interfaces)
       << " faces shared by two volume blocks (interfaces, not walls) carry NaN.");
   }
-  if (global[1] > 0 && (ProcessRank() == 0 || counts.Unmatched > 0))
+  if (global[ShearCounts::Unmatched] > 0 && (root || counts.N[ShearCounts::Unmatched] > 0))
   {
-    // Rank 0 gives the global count; a rank that holds unmatched faces names its blocks.
-    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[1]) << " of "
-                                         << static_cast<vtkIdType>(global[0])
+    std::ostringstream where;
+    for (std::size_t w = 0; w < walls.size(); ++w)
+    {
+      if (unmatchedPerBlock[w] > 0)
+      {
+        where << " " << static_cast<vtkIdType>(unmatchedPerBlock[w]) << " of "
+              << walls[w].Out->GetNumberOfCells() << " faces of '" << walls[w].Name << "'";
+      }
+    }
+    vtkWarningMacro("Shear Projection: " << count(ShearCounts::Unmatched) << " of "
+                                         << count(ShearCounts::Faces)
                                          << " wall faces match no boundary face of the volume "
                                             "(walls that do not touch it, or held by another rank) "
-                                            "and carry NaN." << unmatchedReport.str());
+                                            "and carry NaN."
+                                         << where.str());
   }
-  if (global[2] + global[4] > 0 && ProcessRank() == 0)
+  if (root && global[ShearCounts::OffWall] + global[ShearCounts::Failed] > 0)
   {
-    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[2])
+    vtkWarningMacro("Shear Projection: " << count(ShearCounts::OffWall)
                                          << " faces whose adjacent cell centre is not off the wall "
                                             "(degenerate cells) and "
-                                         << static_cast<vtkIdType>(global[4])
-                                         << " faces whose reconstruction failed carry NaN.");
+                                         << count(ShearCounts::Failed)
+                                         << " faces whose reconstruction failed (values not "
+                                            "finite) carry NaN.");
   }
-  if (global[3] > 0 && ProcessRank() == 0)
+  if (root && global[ShearCounts::BadDensity] > 0)
   {
-    vtkWarningMacro("Shear Projection: the wall fit found no second distinct wall distance on "
-      << static_cast<vtkIdType>(global[3]) << " faces and used the near-wall difference there.");
+    vtkWarningMacro("Shear Projection: Density Array '"
+      << s.Density.Name << "' is not positive at the adjacent cell of "
+      << count(ShearCounts::BadDensity) << " wall faces; they carry NaN shear, friction velocity "
+      << "and y+.");
   }
+  if (root && global[ShearCounts::Size] > 0)
+  {
+    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[ShearCounts::Size])
+                                         << " 3-D cells of a kind without faces (convex point "
+                                            "sets) were ignored.");
+  }
+  if (root && global[ShearCounts::NotComputed] > 0)
+  {
+    vtkWarningMacro("Shear Projection was aborted: " << count(ShearCounts::NotComputed)
+                                                     << " wall faces were not computed and carry "
+                                                        "NaN.");
+  }
+  this->UpdateProgress(1.0);
   return 1;
 }
 
@@ -751,4 +726,10 @@ void vtkShearProjection::PrintSelf(ostream& os, vtkIndent indent)
   os << indent << "Density: " << this->Density << "\n";
   os << indent << "WallLawKappa: " << this->WallLawKappa << "\n";
   os << indent << "WallLawB: " << this->WallLawB << "\n";
+  os << indent << "WallBlockAssembly: "
+     << (this->WallBlockAssembly ? this->WallBlockAssembly : "(none)") << "\n";
+  for (const std::string& sel : this->WallBlockSelectors)
+  {
+    os << indent << "WallBlockSelector: " << sel << "\n";
+  }
 }

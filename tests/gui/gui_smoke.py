@@ -21,8 +21,8 @@ try:
     xml_names = [sm.ProxyManager().GetPrototypeProxy("filters", n) is not None
                  for n in ("WallTraction", "LoadIntegration", "ShearProjection")]
     assert all(xml_names), "filters missing from the GUI's proxy manager: %s" % xml_names
-    exact = json.load(open(os.path.join(src, "data", "demo", "analytic.json")))
-    reader = simple.XMLMultiBlockDataReader(FileName=[os.path.join(src, "data", "demo", "bead.vtm")])
+    exact = json.load(open(os.path.join(src, "examples", "demo", "analytic.json")))
+    reader = simple.XMLMultiBlockDataReader(FileName=[os.path.join(src, "examples", "demo", "bead.vtm")])
     wt = simple.WallTraction(Input=reader)
     wt.Pressure = ["POINTS", "p"]
     wt.ReferencePressure = exact["parameters"]["p_inf"]

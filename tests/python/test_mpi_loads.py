@@ -15,7 +15,7 @@ import tempfile
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as sc
+import scenes as sc
 from vtkmodules.vtkParallelCore import vtkMultiProcessController, vtkDummyController
 from vtkmodules.vtkIOXML import vtkXMLPolyDataWriter, vtkXMLMultiBlockDataReader
 from vtkmodules.vtkCommonCore import vtkSMPTools
@@ -164,7 +164,7 @@ T.check_close("rank %d wetted area (ghosts left out)" % rank,
               T.field(ref0, "Area"), rtol=1e-12)
 
 # --- 2. a multiblock whose blocks sit on different ranks ------------------
-vtm = os.path.join(os.environ["WALLLOADS_SOURCE_DIR"], "data", "demo", "bead.vtm")
+vtm = os.path.join(os.environ["WALLLOADS_SOURCE_DIR"], "examples", "demo", "bead.vtm")
 blocks = simple.XMLMultiBlockDataReader(FileName=[vtm])
 wt2 = simple.WallTraction(Input=blocks)
 li2 = simple.LoadIntegration(Input=wt2)

@@ -16,7 +16,7 @@ import sys
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as sc
+import scenes as sc
 from vtkmodules.vtkParallelCore import vtkMultiProcessController
 
 

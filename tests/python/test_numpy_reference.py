@@ -29,7 +29,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 from wallloads import batch
 
 simple = T.load_plugin()

@@ -2,7 +2,7 @@
 Archimedes' principle through the whole Wall Traction -> Load Integration
 pipeline.
 
-Conventions (see data/wallloads_scenes.py): n is the unit normal out of the
+Conventions (see tests/python/scenes): n is the unit normal out of the
 wall into the fluid; the traction the fluid exerts on the wall is
 t = -(p - p_ref) n + tau n, tau = mu_eff (G + G^T) - (2/3) mu_eff tr(G) I
 (Newtonian fluid with Stokes' hypothesis, e.g. Batchelor, An Introduction to
@@ -13,7 +13,7 @@ Every check prints the measured value, the expected value and the tolerance.
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 

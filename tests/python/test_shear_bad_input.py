@@ -23,7 +23,7 @@ from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkDataObject,
                                            vtkMultiBlockDataSet, vtkPolyData, vtkUnstructuredGrid)
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 

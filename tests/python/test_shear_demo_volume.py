@@ -1,8 +1,8 @@
 """End to end on the demo volume: the spinning bead settling in oil
-(data/generate_demo.py), loads from the fluid volume through Shear
+(examples/generate_demo.py), loads from the fluid volume through Shear
 Projection -> Wall Traction -> Load Integration, compared with the
-surface-only path of data/bead_loads.py and with the exact Stokes loads of
-data/demo/analytic.json.
+surface-only path of examples/bead_loads.py and with the exact Stokes loads of
+examples/demo/analytic.json.
 
 Flow (creeping, Re = 0.0042): Stokes flow past the sphere in the stream U
 (Stokes 1851; Batchelor, An Introduction to Fluid Dynamics, 1967, §4.9)
@@ -37,7 +37,7 @@ tangential part of mu (G + G^T) n. The near-wall difference and the wall
 fit estimate the wall-normal derivative of the tangential velocity, the
 tangential part of mu G n; on a stationary wall the G^T n part vanishes
 (u = 0 along the wall), on the spinning sphere it is -mu Omega x n, a third
-of the exact -3 mu Omega x n (rotating_sphere in wallloads_scenes).
+of the exact -3 mu Omega x n (rotating_sphere in scenes).
 vtkShearProjection.h: that part is added from the gradient of a POINT-data
 wall velocity in each face, as here. Without it (an earlier build) the
 torque of both methods converged to 2/3 of the exact one (ratios
@@ -63,13 +63,13 @@ import os
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 import generate_demo as G
 
 simple = T.load_plugin()
 
 DEMO = os.path.join(os.environ.get("WALLLOADS_SOURCE_DIR", os.path.join(os.path.dirname(__file__), "..", "..")),
-                    "data", "demo")
+                    "examples", "demo")
 with open(os.path.join(DEMO, "analytic.json")) as fh:
     EXACT = json.load(fh)
 PAR = EXACT["parameters"]

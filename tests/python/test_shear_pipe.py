@@ -12,7 +12,7 @@ U_m, u_z = 2 U_m (1 - r^2/R^2), so
 and the axial force balance on the fluid in a length L: the pressure force
 dP pi R^2 = 8 pi mu U_m L equals the wall friction tau_w 2 pi R L.
 
-Meshes (wallloads_scenes.pipe_volume): a polar grid with n_radial rings,
+Meshes (scenes.pipe_volume): a polar grid with n_radial rings,
 n_around = 4 n_radial points per ring and 3 axial layers, L = 6 R:
 'hex' (hexahedra around a wedge core), 'wedge' (the triangulated disc
 extruded) and 'tet' (every wedge cut into three tetrahedra, conformingly).
@@ -75,7 +75,7 @@ import numpy as np
 
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 

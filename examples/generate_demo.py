@@ -13,8 +13,8 @@ Fluid Mechanics, §20).  The hydrostatic part -rho g z is added to the
 dynamic pressure (it is balanced by the body force and does not disturb the
 velocity field).
 
-Output (default folder data/demo, or the first command-line argument)
----------------------------------------------------------------------
+Output (default folder examples/demo, or the first command-line argument)
+-------------------------------------------------------------------------
 * ``bead.vtm`` + ``bead/*.vtp`` (inline binary): the sphere surface, with
   faces ordered as a solver would export them (right-hand normal into the
   wall), split into three blocks by polar angle:
@@ -27,7 +27,7 @@ Output (default folder data/demo, or the first command-line argument)
 * ``bead_volume.vtu`` (inline binary): the oil around the bead, a
   spherical shell R <= r <= 3R of hexahedra (wedges in the two polar rows)
   on the same 36 x 72 latitude/longitude lattice as the surface, 18 radial
-  layers graded toward the bead (``wallloads_scenes.spherical_shell``,
+  layers graded toward the bead (``scenes.spherical_shell``,
   stretch 2: first layer 0.037 R, last 0.24 R).  Its inner boundary is the
   bead surface face for face (same coordinates, same face order).  Cell
   arrays, evaluated at the cell centroids (vertex means): ``U`` (m/s, 3),
@@ -37,7 +37,12 @@ Output (default folder data/demo, or the first command-line argument)
   to the surface ``p`` on the bead.  The file is not used by bead_loads.py;
   it feeds Shear Projection (tests/python/test_shear_demo_volume.py).
 
-Usage: ``pvpython data/generate_demo.py [outdir]``
+Usage: ``pvpython examples/generate_demo.py [outdir]``
+
+The meshes, the analytic Stokes fields and the VTK writers come from the
+scene library the tests use, ``tests/python/scenes`` (found relative to this
+file, so the generator runs from any directory), so the demo and the tests
+share one implementation.
 """
 
 import glob
@@ -47,8 +52,10 @@ import sys
 
 import numpy as np
 
-sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-import wallloads_scenes as ws  # noqa: E402
+# The scene library lives with the tests: <repository>/tests/python/scenes.
+sys.path.insert(0, os.path.normpath(os.path.join(os.path.dirname(os.path.abspath(__file__)),
+                                                 "..", "tests", "python")))
+import scenes as ws  # noqa: E402
 
 # --- Scenario parameters (SI) ------------------------------------------------
 RADIUS = 1.0e-3                      # m
@@ -66,7 +73,7 @@ P_INF = 1.0e5                        # Pa, far-field pressure at z = 0
 N_POLAR, N_AZIMUTH = 36, 72
 VOLUME_OUTER_RADIUS = 3.0 * RADIUS   # m, outer boundary of the fluid volume
 VOLUME_N_RADIAL = 18                 # radial layers (n_polar / 2)
-VOLUME_STRETCH = 2.0                 # wallloads_scenes.stretched_nodes grading
+VOLUME_STRETCH = 2.0                 # scenes.stretched_nodes grading
 ORDERING = "into_wall"
 REGIONS = [  # (block name, RegionId, theta range in degrees)
     ("Upper Cap", 0, (0.0, 60.0)),
@@ -300,7 +307,7 @@ def build_volume(n_polar=N_POLAR, n_azimuth=N_AZIMUTH, n_radial=VOLUME_N_RADIAL,
                  stretch=VOLUME_STRETCH, outer_radius=VOLUME_OUTER_RADIUS):
     """The fluid shell around the bead as a vtkUnstructuredGrid with cell U and p.
 
-    The defaults make data/demo/bead_volume.vtu; other sizes give the
+    The defaults make examples/demo/bead_volume.vtu; other sizes give the
     refinement family of the convergence tests (n_radial = n_polar / 2 keeps
     the cell shapes).
     """

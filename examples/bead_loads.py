@@ -1,12 +1,12 @@
 """WallLoads demo: loads on a spinning glass bead settling through a viscous oil.
 
-Runs Wall Traction and Load Integration on data/demo/bead.vtm (three named
+Runs Wall Traction and Load Integration on examples/demo/bead.vtm (three named
 wall regions), prints the per-region table with units next to the exact
-Stokes-flow loads (data/demo/analytic.json), writes the table as CSV and,
+Stokes-flow loads (examples/demo/analytic.json), writes the table as CSV and,
 when a display is available, a PNG of the surface coloured by Directional
 Traction (the traction along the settling axis).
 
-    pvbatch data/bead_loads.py [output folder]      (default: out/)
+    pvbatch examples/bead_loads.py [output folder]      (default: out/)
 
 The results support, and do not replace, engineering judgement, local codes
 and licensed practice.

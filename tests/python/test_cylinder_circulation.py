@@ -5,7 +5,7 @@ convergence under refinement around the cylinder.
 
 Closed forms (Anderson, Fundamentals of Aerodynamics, §3.15-3.16 -- section
 numbers recalled from memory; the region integrals are re-derived by Gauss
-quadrature in scenes._self_check). Uniform stream U along +x and a
+quadrature in scenes.selfcheck). Uniform stream U along +x and a
 clockwise vortex Gamma; theta from +x toward +y; a = Gamma/(2 pi R U);
 q = rho U^2 / 2; surface speed v_theta = -2 U sin theta - Gamma/(2 pi R):
   C_p = (p - p_inf)/q = 1 - (2 sin theta + a)^2 = 1 - 4 sin^2 theta - 4 a sin theta - a^2,

@@ -3,7 +3,7 @@
 
 Flow (Stokes 1851; Batchelor, An Introduction to Fluid Dynamics, 1967, §4.9
 -- section number recalled from memory; the fields are re-derived and
-checked against finite differences in scenes._self_check):
+checked against finite differences in scenes.selfcheck):
   u = U - (3R/4r)(U + (U.y)y/r^2) - (R^3/4r^3)(U - 3(U.y)y/r^2),
   p - p_inf = -(3/2) mu R (U.y)/r^3,   y = x - c,
   wall shear stress (3 mu/2R)(U - (U.n)n), friction drag 4 pi mu R U (2/3 of

@@ -4,7 +4,7 @@ convergence under mesh refinement.
 
 Closed forms (Stokes 1851; Batchelor, An Introduction to Fluid Dynamics,
 1967, §4.9 -- section number recalled from memory; the values below are
-also re-derived by Gauss quadrature in scenes._self_check):
+also re-derived by Gauss quadrature in scenes.selfcheck):
 
   p - p_inf = -(3/2) mu (U.n)/R,     wall shear stress = (3 mu/2R)(U - (U.n) n),
   traction  = (3 mu / 2R) U  (uniform over the sphere),

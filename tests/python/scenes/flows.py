@@ -172,8 +172,9 @@ def stokes_sphere_velocity_gradient(x, radius, U, center=(0.0, 0.0, 0.0)):
     """Gradient of :func:`stokes_sphere_velocity`, row-major G[i][j] = du_i/dx_j, (M, 9).
 
     Differentiating u = U - (3R/4)(U/r + (U.y) y/r^3) - (R^3/4)(U/r^3 - 3 (U.y) y/r^5)
-    term by term (our own derivation, checked against central differences in
-    the self-check):
+    term by term (our own derivation, checked against central differences and
+    against the Stokes equations div u = 0, grad p = mu lap u in
+    scenes.selfcheck):
       d(U_i/r)/dy_j            = -U_i y_j / r^3
       d((U.y) y_i/r^3)/dy_j    = (U_j y_i + (U.y) delta_ij)/r^3 - 3 (U.y) y_i y_j/r^5
       d(U_i/r^3)/dy_j          = -3 U_i y_j / r^5

@@ -9,12 +9,14 @@ Run by CTest as ``python.test_scenes_selfcheck``
 
 import numpy as np
 
-from .files import polydata, write_vtm
+from .files import mixed_unstructured_grid, polydata, unstructured_grid, volume_mesh_check, write_vtm
 from .flows import (CYLINDER_REGIONS, cylinder_region_forces, cylinder_with_circulation,
-                    rotating_sphere, rotating_sphere_velocity, stokes_sphere,
-                    stokes_sphere_velocity)
-from .meshes import (box, cylinder_lateral, enclosed_volume, face_centroids, newell_normals,
-                     tetrahedron, uv_sphere, volume_centroid)
+                    rotating_sphere, rotating_sphere_velocity, rotating_sphere_velocity_gradient,
+                    stokes_sphere, stokes_sphere_pressure, stokes_sphere_velocity,
+                    stokes_sphere_velocity_gradient)
+from .meshes import (VTK_HEXAHEDRON, box, cylinder_lateral, enclosed_volume, face_centroids,
+                     grid_boundary_patch, hex_box, hex_grid, newell_normals, pipe_volume,
+                     spherical_shell, tetrahedron, uv_sphere, volume_centroid)
 
 
 def _sphere_gauss(radius, center, n_theta=24, n_phi=48):
@@ -154,6 +156,75 @@ def run():
         close(ref["all"], [0.0, rho * U_ * Gam * span, 0.0], atol=1e-12 * scale)
         close(ref["upper"] + ref["lower"], ref["all"], atol=1e-12 * scale)
         close(ref["front"] + ref["rear"], ref["all"], atol=1e-12 * scale)
+
+    # --- Off-wall sphere fields (the volumes of Shear Projection) ----------
+    # Gradients against central differences (error O(h^2) ~ 1e-10 relative),
+    # and the Stokes equations themselves: div u = 0 and grad p = mu lap u,
+    # lap u_i = d(G_ij)/dx_j by central differences of the analytic gradient.
+    d = rng.normal(size=(40, 3))
+    xo = c + R * (1.05 + 2.0 * rng.random(40))[:, None] * d / np.linalg.norm(d, axis=1)[:, None]
+    Gs = stokes_sphere_velocity_gradient(xo, R, U, c)
+    close(Gs, _fd_gradient(lambda y: stokes_sphere_velocity(y, R, U, c), xo, h),
+          atol=1e-8 * np.abs(U).max() / R)
+    close(Gs.reshape(-1, 3, 3).trace(axis1=1, axis2=2), 0.0, atol=1e-14 * np.abs(U).max() / R)
+    lap = np.zeros((xo.shape[0], 3))
+    for j in range(3):
+        e = np.zeros(3)
+        e[j] = h
+        dG = (stokes_sphere_velocity_gradient(xo + e, R, U, c)
+              - stokes_sphere_velocity_gradient(xo - e, R, U, c)).reshape(-1, 3, 3) / (2.0 * h)
+        lap += dG[:, :, j]
+    gp = np.zeros((xo.shape[0], 3))
+    for j in range(3):
+        e = np.zeros(3)
+        e[j] = h
+        gp[:, j] = (stokes_sphere_pressure(xo + e, R, U, mu, c)
+                    - stokes_sphere_pressure(xo - e, R, U, mu, c)) / (2.0 * h)
+    close(gp, mu * lap, atol=1e-8 * mu * np.abs(U).max() / R**2)
+    close(stokes_sphere_pressure(x, R, U, mu, c), s["p"], atol=1e-14 * mu * np.abs(U).max() / R)
+    Gr = rotating_sphere_velocity_gradient(xo, R, Om, c)
+    close(Gr, _fd_gradient(lambda y: rotating_sphere_velocity(y, R, Om, c), xo, h),
+          atol=1e-8 * np.abs(Om).max())
+    close(Gr.reshape(-1, 3, 3).trace(axis1=1, axis2=2), 0.0, atol=1e-14 * np.abs(Om).max())
+    close(rotating_sphere_velocity_gradient(x, R, Om, c), r_["grad"], atol=1e-13 * np.abs(Om).max())
+
+    # --- Volume meshes: positive cells, exact volumes, conforming ----------
+    # (volume_mesh_check: signed vtkCellSizeFilter volumes; the boundary face
+    # count of vtkDataSetSurfaceFilter exposes non-conforming internal faces.)
+    xs, ys, zs = np.array([0.0, 0.3, 1.0]), np.array([0.0, 0.5, 0.7, 2.0]), np.array([0.0, 3.0])
+    for rot in (None, q):
+        P, hexes, _ = hex_grid(xs, ys, zs, rotation=rot, origin=(1.0, -2.0, 0.5))
+        volume_mesh_check(mixed_unstructured_grid(P, [(VTK_HEXAHEDRON, hexes)]),
+                          expected_volume=6.0, expected_boundary_faces=2 * (6 + 3 + 2))
+        for axis in range(3):
+            for side in (0, 1):
+                Pb, Fb = grid_boundary_patch(xs, ys, zs, axis, side, rotation=rot,
+                                             origin=(1.0, -2.0, 0.5))
+                nb, _ = newell_normals(Pb, Fb)
+                out = (np.eye(3) if rot is None else rot)[:, axis] * (1.0 if side else -1.0)
+                close(nb, np.broadcast_to(out, nb.shape), atol=1e-14)   # into_wall: out of the grid
+    P, hexes = hex_box(xs, ys, zs)
+    volume_mesh_check(unstructured_grid(P, hexes, VTK_HEXAHEDRON), expected_volume=6.0,
+                      expected_boundary_faces=2 * (6 + 3 + 2))
+    Rp, Lp, nt = 0.4, 1.5, 12
+    inscribed = 0.5 * nt * Rp**2 * np.sin(2.0 * np.pi / nt) * Lp   # the faceted pipe's volume
+    for kind in ("hex", "wedge", "tet"):
+        pv = pipe_volume(Rp, Lp, 3, nt, 4, kind=kind)
+        volume_mesh_check(mixed_unstructured_grid(pv["points"], pv["cells"]),
+                          expected_volume=inscribed,
+                          expected_boundary_faces=len(pv["wall"]) + pv["caps"])
+        nw, _ = newell_normals(pv["points"], [tuple(f) for f in pv["wall"]])
+        radial = np.stack([np.cos(pv["wall_theta"]), np.sin(pv["wall_theta"])], axis=1)
+        assert np.all(np.einsum("ij,ij->i", nw[:, :2], radial) > 0.9), kind   # into_wall: outward
+    sh = spherical_shell(R, 3.0 * R, 8, 12, 3, stretch=2.0, center=c)
+    Pi, Fi, _ = uv_sphere(R, 8, 12, center=c)
+    Po, Fo, _ = uv_sphere(3.0 * R, 8, 12, center=c)
+    close(sh["points"][:Pi.shape[0]], Pi, atol=0.0)
+    # The lattice quads are planar and every side face lies in a plane through
+    # the centre, so the shell is exactly the outer polyhedron minus the inner.
+    volume_mesh_check(unstructured_grid(sh["points"], sh["cells"], sh["types"]),
+                      expected_volume=enclosed_volume(Po, Fo) - enclosed_volume(Pi, Fi),
+                      expected_boundary_faces=2 * len(Fi), rtol=1e-11)
 
     # --- polydata / write_vtm round trip ------------------------------------
     import os

@@ -32,10 +32,10 @@ U = par["stream_velocity"][2]
 
 reader = simple.XMLMultiBlockDataReader(FileName=[os.path.join(HERE, "demo", "bead.vtm")])
 traction = simple.WallTraction(Input=reader)
-traction.Pressure = ["POINTS", "p"]
+traction.Pressure = ["POINTS", "static_pressure"]
 traction.ReferencePressure = par["p_inf"]
 traction.ShearSource = "Wall shear stress array"
-traction.WallShearStress = ["CELLS", "wallShearStress"]
+traction.WallShearStress = ["CELLS", "wall_shear"]
 traction.Orientation = "Stored normals point into the wall"   # as the solver exported them
 traction.LoadDirection = [0.0, 0.0, 1.0]                       # settling axis
 traction.Density = rho
@@ -91,13 +91,13 @@ spinning.ResultArrayName = "Wall Velocity"
 spinning.Function = ("(%r*coordsZ-%r*coordsY)*iHat+(%r*coordsX-%r*coordsZ)*jHat+(%r*coordsY-%r*coordsX)*kHat"
                      % (omega[1], omega[2], omega[2], omega[0], omega[0], omega[1]))
 shear = simple.ShearProjection(Input=volume, Walls=spinning)
-shear.Velocity = ["CELLS", "U"]
+shear.Velocity = ["CELLS", "velocity"]
 shear.WallVelocity = ["POINTS", "Wall Velocity"]
 shear.Method = "Near-wall difference"
 shear.Viscosity = mu
 shear.Density = rho
 from_volume = simple.WallTraction(Input=shear)
-from_volume.Pressure = ["POINTS", "p"]
+from_volume.Pressure = ["POINTS", "static_pressure"]
 from_volume.ReferencePressure = par["p_inf"]
 from_volume.ShearSource = "Wall shear stress array"
 from_volume.WallShearStress = ["CELLS", "Wall Shear Stress"]

@@ -128,9 +128,9 @@ def scene(n):
     xc = S.cell_vertex_means(sh["points"], sh["cells"])
     vol = S.unstructured_grid(
         sh["points"], sh["cells"], sh["types"],
-        cell_arrays={"U": S.stokes_sphere_velocity(xc, R, U, CENTRE),
+        cell_arrays={"velocity": S.stokes_sphere_velocity(xc, R, U, CENTRE),
                      "G": S.stokes_sphere_velocity_gradient(xc, R, U, CENTRE)},
-        point_arrays={"U": S.stokes_sphere_velocity(sh["points"], R, U, CENTRE)})
+        point_arrays={"velocity": S.stokes_sphere_velocity(sh["points"], R, U, CENTRE)})
     P, F, _ = S.uv_sphere(R, n, 2 * n, center=CENTRE, ordering="into_wall")
     C = S.face_centroids(P, F)
     walls = S.polydata(P, F, cell_arrays={"p": S.stokes_sphere(C, R, U, MU, CENTRE)["p"]})
@@ -141,7 +141,7 @@ def run(sc, path, with_loads=True):
     method, assoc, grad = PATHS[path]
     vol, wl = T.producer(sc["vol"]), T.producer(sc["walls"])
     sp = simple.ShearProjection(Input=vol, Walls=wl)
-    sp.Velocity = [assoc, "U"]
+    sp.Velocity = [assoc, "velocity"]
     sp.Method = method
     sp.Viscosity = MU
     sp.Density = RHO
@@ -308,7 +308,7 @@ sc = scene(16)
 with_walls = run(sc, "near-wall difference", with_loads=False)
 vol = T.producer(sc["vol"])
 sp = simple.ShearProjection(Input=vol)
-sp.Velocity = ["CELLS", "U"]
+sp.Velocity = ["CELLS", "velocity"]
 sp.Viscosity = MU
 out = T.output_of(sp)
 assert out.IsA("vtkPolyData"), "plain volume without Walls gives a polydata"

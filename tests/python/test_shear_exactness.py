@@ -52,7 +52,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -66,7 +66,7 @@ def shear(vol, walls, method, wall_velocity=None, gradient=None, wall_velocity_o
     """Run Shear Projection (and Wall Traction + Load Integration); return arrays and Moment."""
     v, w = T.producer(vol), T.producer(walls)
     sp = simple.ShearProjection(Input=v, Walls=w)
-    sp.Velocity = ["CELLS", "U"]
+    sp.Velocity = ["CELLS", "velocity"]
     sp.Viscosity = MU
     sp.Method = method
     if wall_velocity:
@@ -125,7 +125,7 @@ yloc = (xc - origin) @ Q[:, 1]
 Uw = 0.3 * Q[:, 0] - 0.2 * Q[:, 2]
 gam = 2.0 * Q[:, 0] + 0.7 * Q[:, 2]
 vol = S.unstructured_grid(Pr, C, S.VTK_HEXAHEDRON_ID,
-                          cell_arrays={"U": Uw + yloc[:, None] * gam,
+                          cell_arrays={"velocity": Uw + yloc[:, None] * gam,
                                        "G": np.tile(np.outer(gam, Q[:, 1]).ravel(), (C.shape[0], 1))})
 wp, wf = box_walls(xn, zn)
 walls = S.polydata(origin + wp @ Q.T, wf, cell_arrays={"Uw": np.tile(Uw, (len(wf), 1))})
@@ -145,7 +145,7 @@ xn, yn, zn = np.linspace(0, 1, 6), S.stretched_nodes(0, h, 8, 1.0), np.linspace(
 P, C = S.hex_box(xn, yn, zn)
 xc = S.cell_vertex_means(P, C)
 vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID,
-                          cell_arrays={"U": np.stack([A * xc[:, 1] * (h - xc[:, 1]), 0 * xc[:, 0], 0 * xc[:, 0]], 1)})
+                          cell_arrays={"velocity": np.stack([A * xc[:, 1] * (h - xc[:, 1]), 0 * xc[:, 0], 0 * xc[:, 0]], 1)})
 wp, wf = box_walls(xn, zn)
 walls = S.polydata(wp, wf)
 r = shear(vol, walls, "Wall fit")
@@ -164,7 +164,7 @@ P, C = S.hex_box(xn, yn, zn)
 xc = S.cell_vertex_means(P, C)
 ux = a_of(xc[:, 0]) * xc[:, 1] + b_of(xc[:, 0]) * xc[:, 1] ** 2
 vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID,
-                          cell_arrays={"U": np.stack([ux, 0 * ux, 0 * ux], 1)})
+                          cell_arrays={"velocity": np.stack([ux, 0 * ux, 0 * ux], 1)})
 wp, wf = box_walls(xn, zn)
 walls = S.polydata(wp, wf)
 xf = S.face_centroids(wp, wf)[:, 0]
@@ -205,7 +205,7 @@ phi_k = (sector + 0.5) * 2 * np.pi / N        # the outward normal of the facet 
 dist = xc[:, 0] * np.cos(phi_k) + xc[:, 1] * np.sin(phi_k) - a0
 g = 3.0
 vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID,
-                          cell_arrays={"U": np.stack([0 * dist, 0 * dist, g * dist], 1)})
+                          cell_arrays={"velocity": np.stack([0 * dist, 0 * dist, g * dist], 1)})
 walls = S.polydata(P, wf)
 exact = np.tile([0.0, 0.0, MU * g], (len(wf), 1))
 r = shear(vol, walls, "Near-wall difference")
@@ -226,7 +226,7 @@ xn, yn, zn = np.linspace(0, 1, 11), np.linspace(0, 0.1, 6), np.array([0.0, 0.1])
 P, C = S.hex_box(xn, yn, zn)
 xc = S.cell_vertex_means(P, C)
 u = np.stack([2.0 * xc[:, 1] + 5 * xc[:, 1] ** 2, 0.3 * xc[:, 1] ** 2 * (1 + xc[:, 0]), 0 * xc[:, 0]], 1)
-vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"U": u})
+vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"velocity": u})
 wp, wf = box_walls(xn, zn)
 walls = S.polydata(wp, wf)
 r = shear(vol, walls, "Gradient tensor")
@@ -257,7 +257,7 @@ k = Om * Rc**2 / r2**2
 Gc = np.zeros((xc.shape[0], 9))
 Gc[:, 0], Gc[:, 1] = 2 * x_ * y_ * k, (y_**2 - x_**2) * k
 Gc[:, 3], Gc[:, 4] = (y_**2 - x_**2) * k, -2 * x_ * y_ * k
-vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"U": u, "G": Gc})
+vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"velocity": u, "G": Gc})
 cw = S.face_centroids(P, wf)
 walls = S.polydata(P, wf, cell_arrays={"Uw": np.cross([0.0, 0.0, Om], cw)},
                    point_arrays={"Uwp": np.cross([0.0, 0.0, Om], P)})

@@ -47,7 +47,7 @@ def box(n):
     x = vtk_to_numpy(cc.GetOutput().GetPoints().GetData())
     u = np.stack([np.sin(3 * x[:, 1]) * x[:, 2], x[:, 0] * x[:, 2], np.cos(x[:, 0] + x[:, 1])], -1)
     arr = numpy_to_vtk(u, deep=1)
-    arr.SetName("U")
+    arr.SetName("velocity")
     ug.GetCellData().AddArray(arr)
     return ug
 
@@ -64,7 +64,7 @@ def best(fn, repeat):
 def stock(ug):
     grad = vtkGradientFilter()
     grad.SetInputData(ug)
-    grad.SetInputArrayToProcess(0, 0, 0, 1, "U")
+    grad.SetInputArrayToProcess(0, 0, 0, 1, "velocity")
     grad.SetResultArrayName("G")
     surf = vtkDataSetSurfaceFilter()
     surf.SetInputConnection(grad.GetOutputPort())
@@ -104,7 +104,7 @@ def main():
                               (vtkShearProjection.WALL_FIT, "wall fit")):
             sp = vtkShearProjection()
             sp.SetInputData(ug)
-            sp.SetInputArrayToProcess(0, 0, 0, 1, "U")
+            sp.SetInputArrayToProcess(0, 0, 0, 1, "velocity")
             sp.SetMethod(method)
             sp.SetViscosity(MU)
             t0 = time.perf_counter()

@@ -37,7 +37,7 @@ vtkSmartPointer<vtkUnstructuredGrid> CouetteBox(int n, double h, double U)
   auto ug = vtkSmartPointer<vtkUnstructuredGrid>::New();
   ug->SetPoints(pts);
   auto u = vtkSmartPointer<vtkDoubleArray>::New();
-  u->SetName("U");
+  u->SetName("velocity");
   u->SetNumberOfComponents(3);
   for (int k = 0; k < n; ++k)
   {
@@ -71,7 +71,7 @@ TEST(ShearProjection, CouetteIsExact)
   {
     auto sp = vtkSmartPointer<vtkShearProjection>::New();
     sp->SetInputDataObject(0, box);
-    sp->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "U");
+    sp->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "velocity");
     sp->SetMethod(method);
     sp->SetViscosity(mu);
     sp->Update();
@@ -102,13 +102,13 @@ TEST(ShearProjection, AdjacencyIsReused)
   auto box = CouetteBox(3, 1.0, 1.0);
   auto sp = vtkSmartPointer<vtkShearProjection>::New();
   sp->SetInputDataObject(0, box);
-  sp->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "U");
+  sp->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "velocity");
   sp->Update();
   auto next = vtkSmartPointer<vtkUnstructuredGrid>::New();
   next->ShallowCopy(box);
   auto u = vtkSmartPointer<vtkDoubleArray>::New();
-  u->DeepCopy(box->GetCellData()->GetArray("U"));
-  u->SetName("U");
+  u->DeepCopy(box->GetCellData()->GetArray("velocity"));
+  u->SetName("velocity");
   next->GetCellData()->AddArray(u);
   sp->SetInputDataObject(0, next);
   sp->Update();
@@ -120,10 +120,10 @@ TEST(ShearProjection, MissingVelocityIsAnError)
   auto box = CouetteBox(2, 1.0, 1.0);
   auto sp = vtkSmartPointer<vtkShearProjection>::New();
   sp->SetInputDataObject(0, box);
-  sp->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "velocity");
+  sp->SetInputArrayToProcess(0, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "flow_velocity");
   Messages m;
   m.Watch(sp);
   sp->Update();
-  EXPECT_TRUE(m.ErrorContains("'velocity' not found")) << (m.Errors.empty() ? "" : m.Errors[0]);
-  EXPECT_TRUE(m.ErrorContains("'U'"));
+  EXPECT_TRUE(m.ErrorContains("'flow_velocity' not found")) << (m.Errors.empty() ? "" : m.Errors[0]);
+  EXPECT_TRUE(m.ErrorContains("'velocity'"));  // the array that exists is listed
 }

@@ -21,13 +21,13 @@ try:
     xml_names = [sm.ProxyManager().GetPrototypeProxy("filters", n) is not None
                  for n in ("WallTraction", "LoadIntegration", "ShearProjection")]
     assert all(xml_names), "filters missing from the GUI's proxy manager: %s" % xml_names
-    exact = json.load(open(os.path.join(src, "data", "demo", "analytic.json")))
-    reader = simple.XMLMultiBlockDataReader(FileName=[os.path.join(src, "data", "demo", "bead.vtm")])
+    exact = json.load(open(os.path.join(src, "examples", "demo", "analytic.json")))
+    reader = simple.XMLMultiBlockDataReader(FileName=[os.path.join(src, "examples", "demo", "bead.vtm")])
     wt = simple.WallTraction(Input=reader)
-    wt.Pressure = ["POINTS", "p"]
+    wt.Pressure = ["POINTS", "static_pressure"]
     wt.ReferencePressure = exact["parameters"]["p_inf"]
     wt.ShearSource = "Wall shear stress array"
-    wt.WallShearStress = ["CELLS", "wallShearStress"]
+    wt.WallShearStress = ["CELLS", "wall_shear"]
     wt.LoadDirection = [0, 0, 1]
     view = simple.GetActiveViewOrCreate("RenderView")
     shown = simple.Show(wt, view)

@@ -15,7 +15,7 @@ from vtkmodules.vtkCommonCore import vtkPoints
 from vtkmodules.vtkCommonDataModel import vtkCellArray, vtkCompositeDataSet, vtkMultiBlockDataSet, vtkPolyData
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 RNG = np.random.default_rng(4242)

@@ -5,7 +5,7 @@ convergence under refinement around the cylinder.
 
 Closed forms (Anderson, Fundamentals of Aerodynamics, §3.15-3.16 -- section
 numbers recalled from memory; the region integrals are re-derived by Gauss
-quadrature in wallloads_scenes._self_check). Uniform stream U along +x and a
+quadrature in scenes.selfcheck). Uniform stream U along +x and a
 clockwise vortex Gamma; theta from +x toward +y; a = Gamma/(2 pi R U);
 q = rho U^2 / 2; surface speed v_theta = -2 U sin theta - Gamma/(2 pi R):
   C_p = (p - p_inf)/q = 1 - (2 sin theta + a)^2 = 1 - 4 sin^2 theta - 4 a sin theta - a^2,
@@ -15,7 +15,7 @@ q = rho U^2 / 2; surface speed v_theta = -2 U sin theta - Gamma/(2 pi R):
     lower [pi, 2 pi]:    F = q R b (0, -(10/3 + 2 a^2 - 2 pi a), 0)
     front [pi/2, 3pi/2]: F = q R b (-(2/3 + 2 a^2), 2 pi a, 0)
     rear [-pi/2, pi/2]:  F = q R b (2/3 + 2 a^2, 2 pi a, 0)
-  (as stated in wallloads_scenes.cylinder_region_forces).
+  (as stated in scenes.cylinder_region_forces).
   Coefficients with A_ref = 2 R b, q_ref = rho U^2/2:
     C_L = rho U Gamma b / (0.5 rho U^2 2 R b) = Gamma / (U R),  C_D = 0.
 
@@ -48,7 +48,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 

@@ -11,7 +11,7 @@ import subprocess
 import tempfile
 
 import wl_testing as T
-import wallloads_scenes as sc
+import scenes as sc
 from vtkmodules.vtkIOXML import vtkXMLPolyDataWriter
 
 pts, faces, _ = sc.uv_sphere(1.0, 64, 128)

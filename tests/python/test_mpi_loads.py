@@ -15,7 +15,7 @@ import tempfile
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as sc
+import scenes as sc
 from vtkmodules.vtkParallelCore import vtkMultiProcessController, vtkDummyController
 from vtkmodules.vtkIOXML import vtkXMLPolyDataWriter, vtkXMLMultiBlockDataReader
 from vtkmodules.vtkCommonCore import vtkSMPTools
@@ -164,13 +164,13 @@ T.check_close("rank %d wetted area (ghosts left out)" % rank,
               T.field(ref0, "Area"), rtol=1e-12)
 
 # --- 2. a multiblock whose blocks sit on different ranks ------------------
-vtm = os.path.join(os.environ["WALLLOADS_SOURCE_DIR"], "data", "demo", "bead.vtm")
+vtm = os.path.join(os.environ["WALLLOADS_SOURCE_DIR"], "examples", "demo", "bead.vtm")
 blocks = simple.XMLMultiBlockDataReader(FileName=[vtm])
 wt2 = simple.WallTraction(Input=blocks)
 li2 = simple.LoadIntegration(Input=wt2)
 for proxy_wt, proxy_li in ((wt2.GetClientSideObject(), li2.GetClientSideObject()),):
-    proxy_wt.SetInputArrayToProcess(0, 0, 0, 0, "p")
-    proxy_wt.SetInputArrayToProcess(2, 0, 0, 1, "wallShearStress")
+    proxy_wt.SetInputArrayToProcess(0, 0, 0, 0, "static_pressure")
+    proxy_wt.SetInputArrayToProcess(2, 0, 0, 1, "wall_shear")
     proxy_wt.SetShearSource(1)
     proxy_wt.SetReferencePressure(1.0e5)
 li2.UpdatePipeline()
@@ -185,8 +185,8 @@ vtkMultiProcessController.SetGlobalController(vtkDummyController())
 try:
     swt = W.vtkWallTraction()
     swt.SetInputData(full_reader.GetOutputDataObject(0))
-    swt.SetInputArrayToProcess(0, 0, 0, 0, "p")
-    swt.SetInputArrayToProcess(2, 0, 0, 1, "wallShearStress")
+    swt.SetInputArrayToProcess(0, 0, 0, 0, "static_pressure")
+    swt.SetInputArrayToProcess(2, 0, 0, 1, "wall_shear")
     swt.SetShearSource(1)
     swt.SetReferencePressure(1.0e5)
     sli = W.vtkLoadIntegration()

@@ -16,7 +16,7 @@ import sys
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as sc
+import scenes as sc
 from vtkmodules.vtkParallelCore import vtkMultiProcessController
 
 
@@ -46,7 +46,7 @@ if rank < owners:
     xc = sc.cell_vertex_means(pts, hexes)
     u = np.zeros_like(xc)
     u[:, 0] = U * xc[:, 1] / H
-    volume = sc.unstructured_grid(pts, hexes, 12, cell_arrays={"U": u})
+    volume = sc.unstructured_grid(pts, hexes, 12, cell_arrays={"velocity": u})
     wpts, wfaces = sc.grid_boundary_patch(x, y, z, axis=1, side=0)
     walls = sc.polydata(wpts, wfaces)
 else:
@@ -68,7 +68,7 @@ blocks.SetBlock(1, stray)
 blocks.GetMetaData(1).Set(vtkCompositeDataSet.NAME(), "stray")
 
 sp = simple.ShearProjection(Input=T.producer(volume), Walls=T.producer(blocks))
-sp.Velocity = ["CELLS", "U"]
+sp.Velocity = ["CELLS", "velocity"]
 sp.Method = "Wall fit"
 sp.Viscosity = MU
 warnings = []

@@ -29,7 +29,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 from wallloads import batch
 
 simple = T.load_plugin()
@@ -213,10 +213,10 @@ ld = [0.3, -1.2, 0.7]
 exp_a = reference_faces(p - pref, G, mu + mut, False, ld, 0.5 * rho0 * U**2)
 ref_a = run_case(
     "A: static p, gradient, mu + mu_t arrays",
-    None, {"p": p, "G": G, "mu": mu, "mut": mut},
+    None, {"p": p, "G": G, "mu": mu, "eddy_dynamic_viscosity": mut},
     dict(Pressure=["CELLS", "p"], ReferencePressure=pref, Density=rho0,
          ShearSource="Velocity gradient", VelocityGradient=["CELLS", "G"], ViscosityKind="Dynamic",
-         ViscosityArray=["CELLS", "mu"], TurbulentViscosityArray=["CELLS", "mut"],
+         ViscosityArray=["CELLS", "mu"], TurbulentViscosityArray=["CELLS", "eddy_dynamic_viscosity"],
          LoadDirection=ld, ReferenceSpeed=U),
     LI, exp_a)
 
@@ -230,11 +230,11 @@ ld = [-0.5, 0.25, 2.0]
 exp_b = reference_faces(rho * pk - pref, G, rho * (nu + nut), True, ld, 0.5 * rho0 * U**2)
 run_case(
     "B: p/rho x density array, kinematic arrays, include normal",
-    None, {"pk": pk, "G": G, "rho": rho, "nu": nu, "nut": nut},
+    None, {"pk": pk, "G": G, "rho": rho, "nu": nu, "eddy_viscosity": nut},
     dict(Pressure=["CELLS", "pk"], PressureKind="Per unit density", DensityArray=["CELLS", "rho"],
          ReferencePressure=pref, Density=rho0,
          ShearSource="Velocity gradient", VelocityGradient=["CELLS", "G"], ViscosityKind="Kinematic",
-         ViscosityArray=["CELLS", "nu"], TurbulentViscosityArray=["CELLS", "nut"],
+         ViscosityArray=["CELLS", "nu"], TurbulentViscosityArray=["CELLS", "eddy_viscosity"],
          IncludeNormalViscousStress=1, LoadDirection=ld, ReferenceSpeed=U),
     LI, exp_b)
 
@@ -260,11 +260,11 @@ run_case(
 # Etkin, Dynamics of Atmospheric Flight, 1972).  Drag, side force and lift are
 # the projections of F on e_D, e_L x e_D, e_L.
 print("\n== flow angles ==")
-pd = S.polydata(P, FACES, cell_arrays={"p": p, "G": G, "mu": mu, "mut": mut})
+pd = S.polydata(P, FACES, cell_arrays={"p": p, "G": G, "mu": mu, "eddy_dynamic_viscosity": mut})
 src = T.producer(pd)
 wt = simple.WallTraction(Input=src, Pressure=["CELLS", "p"], ReferencePressure=150.0,
                          ShearSource="Velocity gradient", VelocityGradient=["CELLS", "G"],
-                         ViscosityArray=["CELLS", "mu"], TurbulentViscosityArray=["CELLS", "mut"])
+                         ViscosityArray=["CELLS", "mu"], TurbulentViscosityArray=["CELLS", "eddy_dynamic_viscosity"])
 li = simple.LoadIntegration(Input=wt, MomentCentre=LI["MomentCentre"])
 F = ref_a["Force"]
 from wallloads.WallLoadsFilters import vtkLoadIntegration  # noqa: E402

@@ -2,7 +2,7 @@
 Archimedes' principle through the whole Wall Traction -> Load Integration
 pipeline.
 
-Conventions (see data/wallloads_scenes.py): n is the unit normal out of the
+Conventions (see tests/python/scenes): n is the unit normal out of the
 wall into the fluid; the traction the fluid exerts on the wall is
 t = -(p - p_ref) n + tau n, tau = mu_eff (G + G^T) - (2/3) mu_eff tr(G) I
 (Newtonian fluid with Stokes' hypothesis, e.g. Batchelor, An Introduction to
@@ -13,7 +13,7 @@ Every check prints the measured value, the expected value and the tolerance.
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -269,8 +269,8 @@ def check_viscosity():
     nut = 4.0e-4 * RNG.random(NF)
     rho = 1.0 + 0.3 * RNG.random(NF)
     pd = S.polydata(SPH_P, SPH_F, cell_arrays={
-        "G": G, "nu": nu, "nut": nut, "rho": rho, "mu": rho * nu, "mut": rho * nut,
-        "mut_const": np.full(NF, 2.5e-4), "mu_const": np.full(NF, 1.8e-5)})
+        "G": G, "nu": nu, "eddy_viscosity": nut, "rho": rho, "mu": rho * nu, "eddy_dynamic_viscosity": rho * nut,
+        "uniform_eddy_dynamic_viscosity": np.full(NF, 2.5e-4), "mu_const": np.full(NF, 1.8e-5)})
     base = dict(Orientation=INTO_FLUID, ShearSource="Velocity gradient", VelocityGradient=["CELLS", "G"])
     visc = ["Viscous Traction", "Viscous Force", "Normal Viscous Stress"]
 
@@ -281,9 +281,9 @@ def check_viscosity():
     compare_totals("nu * Density vs mu", ta, tb, ["Viscous Force", "Viscous Moment"], 1e-14)
     # kinematic arrays times a DensityArray = dynamic arrays rho_i nu_i, rho_i nu_t,i
     a, ta, _ = run(pd, ViscosityKind="Kinematic", ViscosityArray=["CELLS", "nu"],
-                   TurbulentViscosityArray=["CELLS", "nut"], DensityArray=["CELLS", "rho"], **base)
+                   TurbulentViscosityArray=["CELLS", "eddy_viscosity"], DensityArray=["CELLS", "rho"], **base)
     b, tb, _ = run(pd, ViscosityKind="Dynamic", ViscosityArray=["CELLS", "mu"],
-                   TurbulentViscosityArray=["CELLS", "mut"], **base)
+                   TurbulentViscosityArray=["CELLS", "eddy_dynamic_viscosity"], **base)
     compare_faces("rho_i (nu_i + nu_t,i) vs mu_i + mu_t,i", a, b, visc, 1e-14, "mu = rho nu")
 
     # a ViscosityArray replaces the constant
@@ -292,11 +292,11 @@ def check_viscosity():
     compare_faces("uniform ViscosityArray vs constant", a, b, visc, 1e-15)
 
     # turbulent viscosity adds: mu_eff = mu + mu_t
-    a, _, _ = run(pd, Viscosity=1.8e-5, TurbulentViscosityArray=["CELLS", "mut_const"], **base)
+    a, _, _ = run(pd, Viscosity=1.8e-5, TurbulentViscosityArray=["CELLS", "uniform_eddy_dynamic_viscosity"], **base)
     b, _, _ = run(pd, Viscosity=1.8e-5 + 2.5e-4, **base)
     compare_faces("uniform mu_t array vs constant mu + mu_t", a, b, visc, 1e-15, "mu_eff = mu + mu_t")
     lam, tlam, _ = run(pd, Viscosity=1.8e-5, **base)
-    tur, ttur, _ = run(pd, Viscosity=1.8e-5, TurbulentViscosityArray=["CELLS", "mut"], **base)
+    tur, ttur, _ = run(pd, Viscosity=1.8e-5, TurbulentViscosityArray=["CELLS", "eddy_dynamic_viscosity"], **base)
     scale = (1.8e-5 + rho * nut) / 1.8e-5
     rowwise_close("viscous force scales by (mu + mu_t)/mu", tur["Viscous Force"],
                   scale[:, None] * lam["Viscous Force"], 1e-13, "tau linear in mu_eff")

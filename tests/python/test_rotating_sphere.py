@@ -5,7 +5,7 @@ residual couple, with measured convergence under mesh refinement.
 Closed forms
   Rotation (Landau & Lifshitz, Fluid Mechanics, §20 -- section and result
   recalled from memory; re-derived by quadrature in
-  wallloads_scenes._self_check): u = Omega x y R^3/r^3, uniform pressure,
+  scenes.selfcheck): u = Omega x y R^3/r^3, uniform pressure,
   G = [Omega x](I - 3 n n^T) at r = R, traction t = mu (G + G^T) n
   = -3 mu Omega x n (tangential), torque about the centre
   M = integral R n x t dA = -8 pi mu R^3 Omega, force 0.
@@ -46,7 +46,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 

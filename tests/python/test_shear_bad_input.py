@@ -23,7 +23,7 @@ from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkDataObject,
                                            vtkMultiBlockDataSet, vtkPolyData, vtkUnstructuredGrid)
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -81,7 +81,7 @@ def couette_box(x=X, with_extra=True):
     C = P[hexes].mean(axis=1)
     U = np.zeros_like(C)
     U[:, 0] = U_LID * C[:, 1] / HGT
-    arrays = {"U": U, "p": C[:, 0]} if with_extra else {"U": U}
+    arrays = {"velocity": U, "p": C[:, 0]} if with_extra else {"velocity": U}
     return S.mixed_unstructured_grid(P, [(S.VTK_HEXAHEDRON, hexes)], cell_arrays=arrays), P, hexes, U
 
 
@@ -163,13 +163,13 @@ def check_missing_velocity():
     print("\n== (b) velocity array missing ==")
     vol, _, _, _ = couette_box()
     src = T.producer(vol)
-    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "Unope"], Viscosity=MU)
+    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "velocty"], Viscosity=MU)
     cap = Capture(sp)
     quiet(sp)
     out = T.output_of(sp)
     expect("missing velocity: one error", len(cap.errors) == 1, str(len(cap.errors)))
     contains_all("missing velocity: names it, where it looked, and what exists", cap.errors[0],
-                 ["'Unope'", "not found", "cell data", "'U' (3)", "'p' (1)"])
+                 ["'velocty'", "not found", "cell data", "'velocity' (3)", "'p' (1)"])
     expect("missing velocity: no output cells", out.GetNumberOfCells() == 0)
     expect("missing velocity: no Wall Shear Stress array",
            out.GetCellData().GetArray("Wall Shear Stress") is None)
@@ -187,30 +187,30 @@ def check_missing_velocity():
     from wallloads.WallLoadsFilters import vtkShearProjection
     f = vtkShearProjection()
     f.SetInputData(vol)
-    f.SetInputArrayToProcess(0, 0, 0, vtkDataObject.FIELD_ASSOCIATION_POINTS, "U")
+    f.SetInputArrayToProcess(0, 0, 0, vtkDataObject.FIELD_ASSOCIATION_POINTS, "velocity")
     capf = Capture(f)
     f.GetExecutive().AddObserver("ErrorEvent", lambda *a: None)
     f.Update()
     expect("velocity asked on points (VTK class): one error", len(capf.errors) == 1, str(len(capf.errors)))
-    contains_all("velocity asked on points: says where it looked", capf.errors[0], ["'U'", "point data"])
+    contains_all("velocity asked on points: says where it looked", capf.errors[0], ["'velocity'", "point data"])
 
     # missing on one block of a composite volume: the message names the block
     P2, h2, _ = S.hex_grid(X + 1.0, Y, Z)
     solid = S.mixed_unstructured_grid(P2, [(S.VTK_HEXAHEDRON, h2)], cell_arrays={"V": np.zeros((len(h2), 3))})
     src2 = T.producer(multiblock([("fluid", vol), ("solid", solid)]))
-    sp = simple.ShearProjection(Input=src2, Velocity=["CELLS", "U"], Viscosity=MU)
+    sp = simple.ShearProjection(Input=src2, Velocity=["CELLS", "velocity"], Viscosity=MU)
     cap = Capture(sp)
     quiet(sp)
     T.output_of(sp)
     expect("missing on one block: one error", len(cap.errors) == 1, str(len(cap.errors)))
     contains_all("missing on one block: names the block and its arrays", cap.errors[0],
-                 ["'U'", "block 'solid'", "'V' (3)"])
+                 ["'velocity'", "block 'solid'", "'V' (3)"])
     simple.Delete(sp)
 
     # the wall velocity missing on one wall block
     walls = multiblock([("bottom", bottom_wall(Uw=np.zeros((6, 3)))), ("lid", bottom_wall(y0=HGT))])
     wsrc = T.producer(walls)
-    sp = simple.ShearProjection(Input=src, Walls=wsrc, Velocity=["CELLS", "U"], WallVelocity=["CELLS", "Uw"],
+    sp = simple.ShearProjection(Input=src, Walls=wsrc, Velocity=["CELLS", "velocity"], WallVelocity=["CELLS", "Uw"],
                                 Viscosity=MU)
     cap = Capture(sp)
     quiet(sp)
@@ -231,7 +231,7 @@ def check_walls_not_touching():
     src = T.producer(vol)
     walls = multiblock([("bottom", bottom_wall()), ("far", bottom_wall(y0=5.0))])
     wsrc = T.producer(walls)
-    sp = simple.ShearProjection(Input=src, Walls=wsrc, Velocity=["CELLS", "U"], Viscosity=MU)
+    sp = simple.ShearProjection(Input=src, Walls=wsrc, Velocity=["CELLS", "velocity"], Viscosity=MU)
     for method in METHODS:
         sp.Method = method
         cap = Capture(sp)
@@ -250,7 +250,7 @@ def check_walls_not_touching():
     simple.Delete(sp)
     # a plain polydata that misses entirely
     wsrc2 = T.producer(bottom_wall(y0=-0.5))
-    sp = simple.ShearProjection(Input=src, Walls=wsrc2, Velocity=["CELLS", "U"], Viscosity=MU)
+    sp = simple.ShearProjection(Input=src, Walls=wsrc2, Velocity=["CELLS", "velocity"], Viscosity=MU)
     cap = Capture(sp)
     out = T.output_of(sp)
     expect("walls all apart: one warning, no error", len(cap.warnings) == 1 and not cap.errors,
@@ -292,7 +292,7 @@ def collapsed_scene(kind):
         conn = np.array([[0, 1, 2, 3, 0, 1, 2, 3]]) + len(P)
     Pall = np.vstack([P, extra_p])
     vol = S.mixed_unstructured_grid(Pall, [(S.VTK_HEXAHEDRON, hexes), (S.VTK_HEXAHEDRON, conn)],
-                                    cell_arrays={"U": np.vstack([U, np.zeros((1, 3))])})
+                                    cell_arrays={"velocity": np.vstack([U, np.zeros((1, 3))])})
     wp, wf = S.grid_boundary_patch(X, Y, Z, 1, 0)
     wp = np.vstack([wp, base])
     n0 = len(wp) - 4
@@ -306,7 +306,7 @@ def check_degenerate_cells():
         vol, wall = collapsed_scene(kind)
         vsrc, wsrc = T.producer(vol), T.producer(wall)
         nf = wall.GetNumberOfCells()
-        sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], Viscosity=MU)
+        sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], Viscosity=MU)
         for method in METHODS:
             sp.Method = method
             cap = Capture(sp)
@@ -328,7 +328,7 @@ def check_degenerate_cells():
         simple.Delete(sp)
         # no Walls: the collapsed cell's own boundary faces (zero-area sides, and for
         # 'coincident' its bottom and top) carry NaN and are counted; the box's bottom is exact
-        sp = simple.ShearProjection(Input=vsrc, Velocity=["CELLS", "U"], Viscosity=MU, Method="Wall fit")
+        sp = simple.ShearProjection(Input=vsrc, Velocity=["CELLS", "velocity"], Viscosity=MU, Method="Wall fit")
         cap = Capture(sp)
         out = T.output_of(sp)
         tau = T.cell_array(out, "Wall Shear Stress")
@@ -364,7 +364,7 @@ def check_empty_pieces():
     vol, _, _, _ = couette_box()
     empty = vtkUnstructuredGrid()            # no points, no cells, no arrays
     src = T.producer(multiblock([("empty", empty), ("fluid", vol)]))
-    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "U"], Viscosity=MU, Method="Wall fit")
+    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "velocity"], Viscosity=MU, Method="Wall fit")
     cap = Capture(sp)
     out = T.output_of(sp)
     names = [n for n, _ in leaves(out)]
@@ -376,7 +376,7 @@ def check_empty_pieces():
     n = T.cell_array(b, "Wall Normal")
     check_good("empty + fluid, no walls, bottom", b, n[:, 1] > 0.5)
     wsrc = T.producer(bottom_wall())
-    sp2 = simple.ShearProjection(Input=src, Walls=wsrc, Velocity=["CELLS", "U"], Viscosity=MU)
+    sp2 = simple.ShearProjection(Input=src, Walls=wsrc, Velocity=["CELLS", "velocity"], Viscosity=MU)
     cap = Capture(sp2)
     out = T.output_of(sp2)
     expect("empty + fluid, walls: no error or warning", not cap.errors and not cap.warnings)
@@ -389,7 +389,7 @@ def check_empty_pieces():
     for label, volume in (("plain empty grid", empty), ("multiblock of an empty grid", multiblock([("e", empty)]))):
         src = T.producer(volume)
         for walls in (None, wsrc):
-            sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "U"], Viscosity=MU)
+            sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "velocity"], Viscosity=MU)
             if walls is not None:
                 sp.Walls = walls
             cap = Capture(sp)
@@ -403,7 +403,7 @@ def check_empty_pieces():
     # empty walls
     src = T.producer(vol)
     ew = T.producer(vtkPolyData())
-    sp = simple.ShearProjection(Input=src, Walls=ew, Velocity=["CELLS", "U"], Viscosity=MU)
+    sp = simple.ShearProjection(Input=src, Walls=ew, Velocity=["CELLS", "velocity"], Viscosity=MU)
     cap = Capture(sp)
     out = T.output_of(sp)
     expect("empty walls: no error or warning, no faces", not cap.errors and not cap.warnings
@@ -422,7 +422,7 @@ def check_composite_volume():
     patch = bottom_wall()                     # no velocity array on it: it is not a volume
     comp = multiblock([("fluid", vol), ("bottom", patch)])
     src = T.producer(comp)
-    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "U"], Viscosity=MU, Method="Wall fit")
+    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "velocity"], Viscosity=MU, Method="Wall fit")
     cap = Capture(sp)
     out = T.output_of(sp)
     lv = leaves(out)
@@ -440,7 +440,7 @@ def check_composite_volume():
            lv[0][1].GetNumberOfCells() == 2 * (nx * ny + ny * nz + nz * nx), "%d" % lv[0][1].GetNumberOfCells())
     eb = simple.ExtractBlock(Input=src, Selectors=["/Root/bottom"])
     for method in METHODS[:3]:
-        sp2 = simple.ShearProjection(Input=src, Walls=eb, Velocity=["CELLS", "U"], Viscosity=MU, Method=method)
+        sp2 = simple.ShearProjection(Input=src, Walls=eb, Velocity=["CELLS", "velocity"], Viscosity=MU, Method=method)
         cap = Capture(sp2)
         out = T.output_of(sp2)
         lv = leaves(out)

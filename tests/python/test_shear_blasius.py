@@ -67,7 +67,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -165,7 +165,7 @@ def plate_scene(nx, ny):
     f, fp = blasius(eta)
     u = np.stack([U_INF * fp, 0.5 * np.sqrt(NU * U_INF / xc[:, 0]) * (eta * fp - f),
                   np.zeros_like(eta)], axis=1)
-    vol = S.unstructured_grid(P, cells, S.VTK_HEXAHEDRON_ID, cell_arrays={"U": u})
+    vol = S.unstructured_grid(P, cells, S.VTK_HEXAHEDRON_ID, cell_arrays={"velocity": u})
     X, Z = np.meshgrid(xn, zn, indexing="ij")
     wp = np.stack([X.ravel(), np.zeros(X.size), Z.ravel()], axis=1)
     m = NZ + 1
@@ -186,7 +186,7 @@ def shear(sc, method, walls=True):
         made.append(wl)
     else:
         sp = simple.ShearProjection(Input=vol)
-    sp.Velocity = ["CELLS", "U"]
+    sp.Velocity = ["CELLS", "velocity"]
     sp.Method = method
     sp.Viscosity = MU
     sp.Density = RHO

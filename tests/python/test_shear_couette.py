@@ -47,7 +47,7 @@ from vtkmodules.vtkCommonCore import vtkIdList
 from vtkmodules.vtkCommonDataModel import vtkCompositeDataSet, vtkMultiBlockDataSet, vtkUnstructuredGrid
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -108,7 +108,7 @@ def couette_scene(Q=None, origin=(0.0, 0.0, 0.0), speed=U_WALL, seed=7, wall_ord
     mut = MU * (0.5 + 3.0 * rng.random(C.shape[0]))          # an arbitrary positive field
     rho = RHO * (0.8 + 0.4 * rng.random(C.shape[0]))
     vol = S.mixed_unstructured_grid(P, [(S.VTK_HEXAHEDRON, hexes)],
-                                    cell_arrays={"U": u_cell, "G": G, "mu_t": mut, "rho": rho,
+                                    cell_arrays={"velocity": u_cell, "G": G, "mu_t": mut, "rho": rho,
                                                  "mu_c": np.full(C.shape[0], MU)},
                                     point_arrays={"Up": u_point})
     walls = {}
@@ -117,7 +117,7 @@ def couette_scene(Q=None, origin=(0.0, 0.0, 0.0), speed=U_WALL, seed=7, wall_ord
         wp, wf = S.detached_faces(wp, wf, seed=seed + side)      # own, shuffled point ids
         walls[name] = S.polydata(wp, [tuple(f) for f in wf],
                                  cell_arrays={"Uw": np.tile(uw, (len(wf), 1))})
-    return vol, walls, {"C": C, "mut": mut, "rho": rho, "ex": ex, "ey": Q @ np.array([0.0, 1.0, 0.0])}
+    return vol, walls, {"C": C, "mu_t": mut, "rho": rho, "ex": ex, "ey": Q @ np.array([0.0, 1.0, 0.0])}
 
 
 def multiblock(named):
@@ -229,7 +229,7 @@ def check_exact_methods():
     vol, walls, info = couette_scene()
     vsrc = T.producer(vol)
     wsrc = T.producer(multiblock([("bottom", walls["bottom"]), ("top", walls["top"])]))
-    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], WallVelocity=["CELLS", "Uw"],
+    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], WallVelocity=["CELLS", "Uw"],
                                 Viscosity=MU, Density=RHO)
     cap = Capture(sp)
     for method, grad in EXACT_METHODS:
@@ -264,7 +264,7 @@ def check_oblique_frame():
     both = one_polydata(walls)
     nb = walls["bottom"].GetNumberOfCells()
     vsrc, wsrc = T.producer(vol), T.producer(both)
-    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], WallVelocity=["CELLS", "Uw"],
+    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], WallVelocity=["CELLS", "Uw"],
                                 Viscosity=MU, Density=RHO)
     cap = Capture(sp)
     for method, grad in EXACT_METHODS:
@@ -303,7 +303,7 @@ def check_no_walls_mode():
     print("\n== no Walls input: every boundary face of the volume is a wall face ==")
     vol, walls, info = couette_scene()
     vsrc = T.producer(vol)
-    sp = simple.ShearProjection(Input=vsrc, Velocity=["CELLS", "U"], Viscosity=MU, Density=RHO,
+    sp = simple.ShearProjection(Input=vsrc, Velocity=["CELLS", "velocity"], Viscosity=MU, Density=RHO,
                                 Method="Wall fit")
     out = T.output_of(sp)
     nx, ny, nz = len(X) - 1, len(Y) - 1, len(Z) - 1
@@ -342,7 +342,7 @@ def check_viscosity_options():
     vsrc = T.producer(vol)
     wsrc = T.producer(multiblock([("bottom", walls["bottom"]), ("top", walls["top"])]))
     cells = {k: adjacent_cells(vol, walls[k], s * info["ey"]) for k, s in (("bottom", 1), ("top", -1))}
-    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], WallVelocity=["CELLS", "Uw"])
+    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], WallVelocity=["CELLS", "Uw"])
     cap = Capture(sp)
     for method, grad in EXACT_METHODS:
         # kinematic constant and constant density: mu = rho nu (White, Fluid Mechanics, §1.7)
@@ -368,7 +368,7 @@ def check_viscosity_options():
         out = shear(sp, method, grad, ViscosityKind="Dynamic", Viscosity=123.0, DensityArray=["CELLS", "None"],
                     Density=RHO, ViscosityArray=["CELLS", "mu_c"], TurbulentViscosityArray=["CELLS", "mu_t"])
         for k, s in (("bottom", 1), ("top", -1)):
-            mu_eff = MU + info["mut"][cells[k]]
+            mu_eff = MU + info["mu_t"][cells[k]]
             w = blocks_of(out)[k]
             dy = DY_BOTTOM if k == "bottom" else DY_TOP
             close("%s mu array + mu_t array (%s): tau = (mu + mu_t,P) U/h" % (method, k),
@@ -386,7 +386,7 @@ def check_viscosity_options():
         c = cells[k]
         close("kinematic nu + nu_t array, density array (%s): tau = rho_P (nu + nu_t) U/h" % k,
                       T.cell_array(blocks_of(out)[k], "Wall Shear Stress")[:, 0],
-                      s * info["rho"][c] * (NU + info["mut"][c]) * U_WALL / H, rtol=RTOL_EXACT)
+                      s * info["rho"][c] * (NU + info["mu_t"][c]) * U_WALL / H, rtol=RTOL_EXACT)
     expect("viscosity options: no errors or warnings (but the gradient array's note)",
            not cap.errors and not cap.unexpected(T.NOTE_GRADIENT_ARRAY),
            str(cap.errors + cap.warnings))
@@ -436,7 +436,7 @@ def check_wall_law():
     vol, walls, info = couette_scene()
     vsrc = T.producer(vol)
     wsrc = T.producer(multiblock([("bottom", walls["bottom"]), ("top", walls["top"])]))
-    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], WallVelocity=["CELLS", "Uw"],
+    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], WallVelocity=["CELLS", "Uw"],
                                 Viscosity=MU, Density=RHO, Method="Wall law")
     cap = Capture(sp)
     d_b = DY_BOTTOM / 2
@@ -506,7 +506,7 @@ def check_adjacency_cache():
     vsrc, wsrc = T.producer(vol), T.producer(wall_pd)
 
     # (a) the velocity recomputed by a Calculator: a new output object sharing points and cells
-    calc = simple.Calculator(Input=vsrc, AttributeType="Cell Data", ResultArrayName="V", Function="2*U")
+    calc = simple.Calculator(Input=vsrc, AttributeType="Cell Data", ResultArrayName="V", Function="2*velocity")
     sp = simple.ShearProjection(Input=calc, Walls=wsrc, Velocity=["CELLS", "V"], WallVelocity=["CELLS", "Uw"],
                                 Viscosity=MU, Method="Wall fit")
     obj = sp.GetClientSideObject()
@@ -517,7 +517,7 @@ def check_adjacency_cache():
     close("Calculator 2*U, wall fit: bottom tau = 2 mu U/h", tau[:nb, 0], 2 * TAU,
                   rtol=RTOL_EXACT)
     builds1 = obj.GetNumberOfAdjacencyBuilds()
-    calc.Function = "3*U"
+    calc.Function = "3*velocity"
     out = T.output_of(sp)
     tau = T.cell_array(out, "Wall Shear Stress")
     close("Calculator 3*U: bottom tau = 3 mu U/h", tau[:nb, 0], 3 * TAU, rtol=RTOL_EXACT)
@@ -531,15 +531,15 @@ def check_adjacency_cache():
     simple.Delete(calc)
 
     # (b) a new dataset object, ShallowCopy of the volume, with a new velocity array of the same name
-    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], WallVelocity=["CELLS", "Uw"],
+    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], WallVelocity=["CELLS", "Uw"],
                                 Viscosity=MU, Method="Near-wall difference")
     obj = sp.GetClientSideObject()
     tau = T.cell_array(T.output_of(sp), "Wall Shear Stress")
     close("ShallowCopy run 1: tau = +-mu U/h", tau[:, 0], sign * TAU, rtol=RTOL_EXACT)
     vol2 = vtkUnstructuredGrid()
     vol2.ShallowCopy(vol)
-    u5 = numpy_to_vtk(5.0 * vtk_to_numpy(vol.GetCellData().GetArray("U")), deep=1)
-    u5.SetName("U")
+    u5 = numpy_to_vtk(5.0 * vtk_to_numpy(vol.GetCellData().GetArray("velocity")), deep=1)
+    u5.SetName("velocity")
     vol2.GetCellData().AddArray(u5)          # replaces U on the copy only
     vsrc.GetClientSideObject().SetOutput(vol2)
     vsrc.MarkModified(vsrc)

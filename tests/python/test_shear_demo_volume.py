@@ -1,8 +1,8 @@
 """End to end on the demo volume: the spinning bead settling in oil
-(data/generate_demo.py), loads from the fluid volume through Shear
+(examples/generate_demo.py), loads from the fluid volume through Shear
 Projection -> Wall Traction -> Load Integration, compared with the
-surface-only path of data/bead_loads.py and with the exact Stokes loads of
-data/demo/analytic.json.
+surface-only path of examples/bead_loads.py and with the exact Stokes loads of
+examples/demo/analytic.json.
 
 Flow (creeping, Re = 0.0042): Stokes flow past the sphere in the stream U
 (Stokes 1851; Batchelor, An Introduction to Fluid Dynamics, 1967, §4.9)
@@ -16,7 +16,7 @@ torque is pure wall shear, t = -3 mu Omega x n.
 
 Pipeline (the file level): XMLUnstructuredGridReader(bead_volume.vtu) as
 Input; Walls = the three surface blocks of bead.vtm (+ Calculator for the
-wall velocity); Wall Traction with the surface file's point 'p',
+wall velocity); Wall Traction with the surface file's point 'static_pressure',
 ReferencePressure p_inf and ShearSource 'Wall shear stress array' on the
 projected 'Wall Shear Stress', Orientation 'Use Wall Normal array'; Load
 Integration with bead_loads.py's settings.
@@ -39,7 +39,7 @@ tangential part of mu (G + G^T) n. The near-wall difference and the wall
 fit estimate the wall-normal derivative of the tangential velocity, the
 tangential part of mu G n; on a stationary wall the G^T n part vanishes
 (u = 0 along the wall), on the spinning sphere it is -mu Omega x n, a third
-of the exact -3 mu Omega x n (rotating_sphere in wallloads_scenes).
+of the exact -3 mu Omega x n (rotating_sphere in scenes).
 vtkShearProjection.h: that part is added from the gradient of a POINT-data
 wall velocity in each face, as here. Without it (an earlier build) the
 torque of both methods converged to 2/3 of the exact one (ratios
@@ -68,13 +68,13 @@ import os
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 import generate_demo as G
 
 simple = T.load_plugin()
 
 DEMO = os.path.join(os.environ.get("WALLLOADS_SOURCE_DIR", os.path.join(os.path.dirname(__file__), "..", "..")),
-                    "data", "demo")
+                    "examples", "demo")
 with open(os.path.join(DEMO, "analytic.json")) as fh:
     EXACT = json.load(fh)
 PAR = EXACT["parameters"]
@@ -109,13 +109,13 @@ def wall_velocity_function():
 
 def loads_pipeline(volume, walls, method):
     sp = simple.ShearProjection(Input=volume, Walls=walls)
-    sp.Velocity = ["CELLS", "U"]
-    sp.WallVelocity = ["POINTS", "Uwall"]
+    sp.Velocity = ["CELLS", "velocity"]
+    sp.WallVelocity = ["POINTS", "wall_velocity"]
     sp.Method = method
     sp.Viscosity = MU
     sp.Density = RHO
     wt = simple.WallTraction(Input=sp)
-    wt.Pressure = ["POINTS", "p"]
+    wt.Pressure = ["POINTS", "static_pressure"]
     wt.ReferencePressure = P_INF
     wt.ShearSource = "Wall shear stress array"
     wt.WallShearStress = ["CELLS", "Wall Shear Stress"]
@@ -155,7 +155,7 @@ file_rows, yplus = {}, {}
 for n in LEVELS[:-1]:
     vol = T.producer(G.build_volume(n, 2 * n, n // 2))
     P, F, _ = S.uv_sphere(R, n, 2 * n, center=G.CENTER, ordering=G.ORDERING)
-    wl = T.producer(S.polydata(P, F, point_arrays={"p": G.static_pressure(P), "Uwall": np.cross(OMEGA, P)}))
+    wl = T.producer(S.polydata(P, F, point_arrays={"static_pressure": G.static_pressure(P), "wall_velocity": np.cross(OMEGA, P)}))
     for m in METHODS:
         sp, wt, li = loads_pipeline(vol, wl, m)
         r = totals(li)
@@ -172,7 +172,7 @@ vol = simple.XMLUnstructuredGridReader(FileName=[os.path.join(DEMO, "bead_volume
 bead = simple.XMLMultiBlockDataReader(FileName=[os.path.join(DEMO, "bead.vtm")])
 calc = simple.Calculator(Input=bead)
 calc.AttributeType = "Point Data"
-calc.ResultArrayName = "Uwall"
+calc.ResultArrayName = "wall_velocity"
 calc.Function = wall_velocity_function()
 vtu = T.output_of(vol)
 print("bead_volume.vtu: %d cells, %d points, %.2f MB" % (
@@ -187,8 +187,10 @@ for what, a, b, exact in (("points", vtu.GetPoints().GetData(), ref.GetPoints().
                           ("cell types", vtu.GetCellTypesArray(), ref.GetCellTypesArray(), True),
                           ("connectivity", vtu.GetCells().GetConnectivityArray(),
                            ref.GetCells().GetConnectivityArray(), True),
-                          ("U", vtu.GetCellData().GetArray("U"), ref.GetCellData().GetArray("U"), False),
-                          ("p", vtu.GetCellData().GetArray("p"), ref.GetCellData().GetArray("p"), False)):
+                          ("velocity", vtu.GetCellData().GetArray("velocity"),
+                           ref.GetCellData().GetArray("velocity"), False),
+                          ("static_pressure", vtu.GetCellData().GetArray("static_pressure"),
+                           ref.GetCellData().GetArray("static_pressure"), False)):
     x, y = vtk_to_numpy(a), vtk_to_numpy(b)
     same = np.array_equal(x, y) if exact else (
         x.shape == y.shape and np.allclose(x, y, rtol=0.0, atol=1e-12 * np.abs(y).max()))
@@ -216,10 +218,10 @@ T.check_close("adjacency built once for the three methods", builds, 1.0, source=
 
 # The surface-only path: bead_loads.py's settings on bead.vtm.
 wt_s = simple.WallTraction(Input=bead)
-wt_s.Pressure = ["POINTS", "p"]
+wt_s.Pressure = ["POINTS", "static_pressure"]
 wt_s.ReferencePressure = P_INF
 wt_s.ShearSource = "Wall shear stress array"
-wt_s.WallShearStress = ["CELLS", "wallShearStress"]
+wt_s.WallShearStress = ["CELLS", "wall_shear"]
 wt_s.Orientation = "Stored normals point into the wall"
 li_s = simple.LoadIntegration(Input=wt_s)
 li_s.MomentCentre = [0.0, 0.0, 0.0]

@@ -66,7 +66,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -80,7 +80,7 @@ def shear(vol, walls, method, wall_velocity=None, gradient=None, wall_velocity_o
     """Run Shear Projection (and Wall Traction + Load Integration); return arrays and Moment."""
     v, w = T.producer(vol), T.producer(walls)
     sp = simple.ShearProjection(Input=v, Walls=w)
-    sp.Velocity = ["CELLS", "U"]
+    sp.Velocity = ["CELLS", "velocity"]
     sp.Viscosity = MU
     sp.Method = method
     if wall_velocity:
@@ -139,7 +139,7 @@ yloc = (xc - origin) @ Q[:, 1]
 Uw = 0.3 * Q[:, 0] - 0.2 * Q[:, 2]
 gam = 2.0 * Q[:, 0] + 0.7 * Q[:, 2]
 vol = S.unstructured_grid(Pr, C, S.VTK_HEXAHEDRON_ID,
-                          cell_arrays={"U": Uw + yloc[:, None] * gam,
+                          cell_arrays={"velocity": Uw + yloc[:, None] * gam,
                                        "G": np.tile(np.outer(gam, Q[:, 1]).ravel(), (C.shape[0], 1))})
 wp, wf = box_walls(xn, zn)
 walls = S.polydata(origin + wp @ Q.T, wf, cell_arrays={"Uw": np.tile(Uw, (len(wf), 1))})
@@ -159,7 +159,7 @@ xn, yn, zn = np.linspace(0, 1, 6), S.stretched_nodes(0, h, 8, 1.0), np.linspace(
 P, C = S.hex_box(xn, yn, zn)
 xc = S.cell_vertex_means(P, C)
 vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID,
-                          cell_arrays={"U": np.stack([A * xc[:, 1] * (h - xc[:, 1]), 0 * xc[:, 0], 0 * xc[:, 0]], 1)})
+                          cell_arrays={"velocity": np.stack([A * xc[:, 1] * (h - xc[:, 1]), 0 * xc[:, 0], 0 * xc[:, 0]], 1)})
 wp, wf = box_walls(xn, zn)
 walls = S.polydata(wp, wf)
 r = shear(vol, walls, "Wall fit")
@@ -192,7 +192,7 @@ for level in range(3):
     xc = S.cell_vertex_means(P, C)
     ux = a_of(xc[:, 0]) * xc[:, 1] + b_of(xc[:, 0]) * xc[:, 1] ** 2
     vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID,
-                              cell_arrays={"U": np.stack([ux, 0 * ux, 0 * ux], 1)})
+                              cell_arrays={"velocity": np.stack([ux, 0 * ux, 0 * ux], 1)})
     wp, wf = box_walls(xn, zn)
     xf = S.face_centroids(wp, wf)[:, 0]
     r = shear(vol, S.polydata(wp, wf), "Wall fit")
@@ -234,7 +234,7 @@ phi_k = (sector + 0.5) * 2 * np.pi / N        # the outward normal of the facet 
 dist = xc[:, 0] * np.cos(phi_k) + xc[:, 1] * np.sin(phi_k) - a0
 g = 3.0
 vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID,
-                          cell_arrays={"U": np.stack([0 * dist, 0 * dist, g * dist], 1)})
+                          cell_arrays={"velocity": np.stack([0 * dist, 0 * dist, g * dist], 1)})
 walls = S.polydata(P, wf)
 exact = np.tile([0.0, 0.0, MU * g], (len(wf), 1))
 r = shear(vol, walls, "Near-wall difference")
@@ -256,7 +256,7 @@ for level in range(3):
     xcl = S.cell_vertex_means(Pl, Cl)
     rl = np.hypot(xcl[:, 0], xcl[:, 1])
     voll = S.unstructured_grid(Pl, Cl, S.VTK_HEXAHEDRON_ID,
-                               cell_arrays={"U": np.stack([0 * rl, 0 * rl, g * (rl - Rv)], 1)})
+                               cell_arrays={"velocity": np.stack([0 * rl, 0 * rl, g * (rl - Rv)], 1)})
     rr = shear(voll, S.polydata(Pl, wfl), "Wall fit")
     errs4.append(max_rel(rr["Wall Shear Stress"], np.tile([0.0, 0.0, MU * g], (len(wfl), 1))))
 order4 = np.log2(errs4[-2] / errs4[-1])
@@ -270,7 +270,7 @@ xn, yn, zn = np.linspace(0, 1, 11), np.linspace(0, 0.1, 6), np.array([0.0, 0.1])
 P, C = S.hex_box(xn, yn, zn)
 xc = S.cell_vertex_means(P, C)
 u = np.stack([2.0 * xc[:, 1] + 5 * xc[:, 1] ** 2, 0.3 * xc[:, 1] ** 2 * (1 + xc[:, 0]), 0 * xc[:, 0]], 1)
-vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"U": u})
+vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"velocity": u})
 wp, wf = box_walls(xn, zn)
 walls = S.polydata(wp, wf)
 r = shear(vol, walls, "Gradient tensor")
@@ -301,7 +301,7 @@ k = Om * Rc**2 / r2**2
 Gc = np.zeros((xc.shape[0], 9))
 Gc[:, 0], Gc[:, 1] = 2 * x_ * y_ * k, (y_**2 - x_**2) * k
 Gc[:, 3], Gc[:, 4] = (y_**2 - x_**2) * k, -2 * x_ * y_ * k
-vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"U": u, "G": Gc})
+vol = S.unstructured_grid(P, C, S.VTK_HEXAHEDRON_ID, cell_arrays={"velocity": u, "G": Gc})
 cw = S.face_centroids(P, wf)
 walls = S.polydata(P, wf, cell_arrays={"Uw": np.cross([0.0, 0.0, Om], cw)},
                    point_arrays={"Uwp": np.cross([0.0, 0.0, Om], P)})

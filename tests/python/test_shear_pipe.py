@@ -12,7 +12,7 @@ U_m, u_z = 2 U_m (1 - r^2/R^2), so
 and the axial force balance on the fluid in a length L: the pressure force
 dP pi R^2 = 8 pi mu U_m L equals the wall friction tau_w 2 pi R L.
 
-Meshes (wallloads_scenes.pipe_volume): a polar grid with n_radial rings,
+Meshes (scenes.pipe_volume): a polar grid with n_radial rings,
 n_around = 4 n_radial points per ring and 3 axial layers, L = 6 R:
 'hex' (hexahedra around a wedge core), 'wedge' (the triangulated disc
 extruded) and 'tet' (every wedge cut into three tetrahedra, conformingly).
@@ -74,7 +74,7 @@ import numpy as np
 
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -148,14 +148,14 @@ def pipe_scene(kind, n_radial, n_around=None, seed=None):
     G = np.zeros((C.shape[0], 9))
     G[:, 6] = -4.0 * UM * C[:, 0] / R**2       # du_z/dx
     G[:, 7] = -4.0 * UM * C[:, 1] / R**2       # du_z/dy
-    vol = S.mixed_unstructured_grid(m["points"], m["cells"], cell_arrays={"U": U, "G": G})
+    vol = S.mixed_unstructured_grid(m["points"], m["cells"], cell_arrays={"velocity": U, "G": G})
     wp, wf = S.detached_faces(m["points"], m["wall"], seed=n_radial + n_around if seed is None else seed)
     wall = S.polydata(wp, [tuple(f) for f in wf])
     # our own geometry of the wall faces (face order is kept by detached_faces)
     n_out, area = S.newell_normals(m["points"], [tuple(f) for f in m["wall"]])
     xf = S.face_centroids(m["points"], [tuple(f) for f in m["wall"]])
     cell = adjacent_cells(m)
-    return {"m": m, "vol": vol, "wall": wall, "C": C, "U": U, "G": G, "n_in": -n_out, "area": area,
+    return {"m": m, "vol": vol, "wall": wall, "C": C, "velocity": U, "G": G, "n_in": -n_out, "area": area,
             "xf": xf, "cell": cell, "n_around": n_around}
 
 
@@ -186,7 +186,7 @@ def res_fit_error(tau):
 def run_level(kind, n_radial, n_around=None, chain=True, identities=True):
     sc = pipe_scene(kind, n_radial, n_around)
     vsrc, wsrc = T.producer(sc["vol"]), T.producer(sc["wall"])
-    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], Viscosity=MU, Density=RHO)
+    sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], Viscosity=MU, Density=RHO)
     cap = Capture(sp)
     wt = li = None
     if chain:
@@ -195,7 +195,7 @@ def run_level(kind, n_radial, n_around=None, chain=True, identities=True):
         li = simple.LoadIntegration(Input=wt)
     tag = "%s n_r=%d n_th=%d" % (kind, n_radial, sc["n_around"])
     xP = sc["C"][sc["cell"]]
-    uP = sc["U"][sc["cell"], 2]
+    uP = sc["velocity"][sc["cell"], 2]
     d = np.einsum("ij,ij->i", xP - sc["xf"], sc["n_in"])
     res = {}
     for key, method, grad in METHODS:
@@ -376,9 +376,9 @@ def check_no_walls_mode():
     for kind in KINDS:
         sc = pipe_scene(kind, 8)
         vsrc, wsrc = T.producer(sc["vol"]), T.producer(sc["wall"])
-        a = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], Viscosity=MU,
+        a = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], Viscosity=MU,
                                    Method="Wall fit")
-        b = simple.ShearProjection(Input=vsrc, Velocity=["CELLS", "U"], Viscosity=MU, Method="Wall fit")
+        b = simple.ShearProjection(Input=vsrc, Velocity=["CELLS", "velocity"], Viscosity=MU, Method="Wall fit")
         oa, ob = T.output_of(a), T.output_of(b)
         expect(kind + ": boundary = lateral faces + caps", ob.GetNumberOfCells() ==
                len(sc["m"]["wall"]) + sc["m"]["caps"], "%d" % ob.GetNumberOfCells())
@@ -425,7 +425,7 @@ def check_flat_wall_control():
         C = P[hexes].mean(axis=1)
         U = np.zeros_like(C)
         U[:, 0] = 6 * UM * (C[:, 1] / h) * (1 - C[:, 1] / h)
-        vol = S.mixed_unstructured_grid(P, [(S.VTK_HEXAHEDRON, hexes)], cell_arrays={"U": U})
+        vol = S.mixed_unstructured_grid(P, [(S.VTK_HEXAHEDRON, hexes)], cell_arrays={"velocity": U})
         walls = []
         for side in (0, 1):
             wp, wf = S.grid_boundary_patch(x, y, z, 1, side)
@@ -436,7 +436,7 @@ def check_flat_wall_control():
             app.AddInputData(w)
         app.Update()
         vsrc, wsrc = T.producer(vol), T.producer(app.GetOutput())
-        sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "U"], Viscosity=MU)
+        sp = simple.ShearProjection(Input=vsrc, Walls=wsrc, Velocity=["CELLS", "velocity"], Viscosity=MU)
         cap = Capture(sp)
         a, b, d = 6 * UM / h, -6 * UM / h**2, 0.5 * h / ny
         for method, grad, expected in (("Wall fit", None, MU * a), ("Near-wall difference", None, MU * (a + b * d)),

@@ -3,13 +3,13 @@
 
 Flow (Stokes 1851; Batchelor, An Introduction to Fluid Dynamics, 1967, §4.9
 -- section number recalled from memory; the fields are re-derived and
-checked against finite differences in wallloads_scenes._self_check):
+checked against finite differences in scenes.selfcheck):
   u = U - (3R/4r)(U + (U.y)y/r^2) - (R^3/4r^3)(U - 3(U.y)y/r^2),
   p - p_inf = -(3/2) mu R (U.y)/r^3,   y = x - c,
   wall shear stress (3 mu/2R)(U - (U.n)n), friction drag 4 pi mu R U (2/3 of
   the total 6 pi mu R U), pressure drag 2 pi mu R U.
 
-Mesh (wallloads_scenes.spherical_shell): the uv_sphere lattice n_polar x
+Mesh (scenes.spherical_shell): the uv_sphere lattice n_polar x
 2 n_polar swept over n_radial = n_polar/2 layers between R and 3R, graded
 toward the wall by the fixed map stretched_nodes(stretch = 2), so every cell
 size scales like h = pi/n_polar (first-layer centre d = 0.65 R/n_polar).
@@ -72,7 +72,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 
@@ -136,9 +136,9 @@ def scene(n):
     xc = S.cell_vertex_means(sh["points"], sh["cells"])
     vol = S.unstructured_grid(
         sh["points"], sh["cells"], sh["types"],
-        cell_arrays={"U": S.stokes_sphere_velocity(xc, R, U, CENTRE),
+        cell_arrays={"velocity": S.stokes_sphere_velocity(xc, R, U, CENTRE),
                      "G": S.stokes_sphere_velocity_gradient(xc, R, U, CENTRE)},
-        point_arrays={"U": S.stokes_sphere_velocity(sh["points"], R, U, CENTRE)})
+        point_arrays={"velocity": S.stokes_sphere_velocity(sh["points"], R, U, CENTRE)})
     P, F, _ = S.uv_sphere(R, n, 2 * n, center=CENTRE, ordering="into_wall")
     C = S.face_centroids(P, F)
     walls = S.polydata(P, F, cell_arrays={"p": S.stokes_sphere(C, R, U, MU, CENTRE)["p"]})
@@ -149,7 +149,7 @@ def run(sc, path, with_loads=True):
     method, assoc, grad = PATHS[path]
     vol, wl = T.producer(sc["vol"]), T.producer(sc["walls"])
     sp = simple.ShearProjection(Input=vol, Walls=wl)
-    sp.Velocity = [assoc, "U"]
+    sp.Velocity = [assoc, "velocity"]
     sp.Method = method
     sp.Viscosity = MU
     sp.Density = RHO
@@ -316,7 +316,7 @@ sc = scene(16)
 with_walls = run(sc, "near-wall difference", with_loads=False)
 vol = T.producer(sc["vol"])
 sp = simple.ShearProjection(Input=vol)
-sp.Velocity = ["CELLS", "U"]
+sp.Velocity = ["CELLS", "velocity"]
 sp.Viscosity = MU
 out = T.output_of(sp)
 assert out.IsA("vtkPolyData"), "plain volume without Walls gives a polydata"

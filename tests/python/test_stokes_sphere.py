@@ -4,7 +4,7 @@ convergence under mesh refinement.
 
 Closed forms (Stokes 1851; Batchelor, An Introduction to Fluid Dynamics,
 1967, §4.9 -- section number recalled from memory; the values below are
-also re-derived by Gauss quadrature in wallloads_scenes._self_check):
+also re-derived by Gauss quadrature in scenes.selfcheck):
 
   p - p_inf = -(3/2) mu (U.n)/R,     wall shear stress = (3 mu/2R)(U - (U.n) n),
   traction  = (3 mu / 2R) U  (uniform over the sphere),
@@ -13,7 +13,7 @@ also re-derived by Gauss quadrature in wallloads_scenes._self_check):
   total          F   = 6 pi mu R U,   no force normal to U, no moment about
   the centre (the traction is uniform, and integral of n dA = 0).
 
-Discretisation: a latitude/longitude sphere (wallloads_scenes.uv_sphere)
+Discretisation: a latitude/longitude sphere (scenes.uv_sphere)
 with n_polar = 8, 16, 32, 64 and n_azimuth = 2 n_polar, so that the polar
 and azimuthal angular steps are both h = pi / n_polar. Fields are evaluated
 at the radial projection of each face centroid (cell data) or at the
@@ -49,7 +49,7 @@ import math
 import numpy as np
 
 import wl_testing as T
-import wallloads_scenes as S
+import scenes as S
 
 simple = T.load_plugin()
 

@@ -1,12 +1,12 @@
 """WallLoads demo: loads on a spinning glass bead settling through a viscous oil.
 
-Runs Wall Traction and Load Integration on data/demo/bead.vtm (three named
+Runs Wall Traction and Load Integration on examples/demo/bead.vtm (three named
 wall regions), prints the per-region table with units next to the exact
-Stokes-flow loads (data/demo/analytic.json), writes the table as CSV and,
+Stokes-flow loads (examples/demo/analytic.json), writes the table as CSV and,
 when a display is available, a PNG of the surface coloured by Directional
 Traction (the traction along the settling axis).
 
-    pvbatch data/bead_loads.py [output folder]      (default: out/)
+    pvbatch examples/bead_loads.py [output folder]      (default: out/)
 
 The results support, and do not replace, engineering judgement, local codes
 and licensed practice.
@@ -32,10 +32,10 @@ U = par["stream_velocity"][2]
 
 reader = simple.XMLMultiBlockDataReader(FileName=[os.path.join(HERE, "demo", "bead.vtm")])
 traction = simple.WallTraction(Input=reader)
-traction.Pressure = ["POINTS", "p"]
+traction.Pressure = ["POINTS", "static_pressure"]
 traction.ReferencePressure = par["p_inf"]
 traction.ShearSource = "Wall shear stress array"
-traction.WallShearStress = ["CELLS", "wallShearStress"]
+traction.WallShearStress = ["CELLS", "wall_shear"]
 traction.Orientation = "Stored normals point into the wall"   # as the solver exported them
 traction.LoadDirection = [0.0, 0.0, 1.0]                       # settling axis
 traction.Density = rho
@@ -91,13 +91,13 @@ spinning.ResultArrayName = "Wall Velocity"
 spinning.Function = ("(%r*coordsZ-%r*coordsY)*iHat+(%r*coordsX-%r*coordsZ)*jHat+(%r*coordsY-%r*coordsX)*kHat"
                      % (omega[1], omega[2], omega[2], omega[0], omega[0], omega[1]))
 shear = simple.ShearProjection(Input=volume, Walls=spinning)
-shear.Velocity = ["CELLS", "U"]
+shear.Velocity = ["CELLS", "velocity"]
 shear.WallVelocity = ["POINTS", "Wall Velocity"]
 shear.Method = "Near-wall difference"
 shear.Viscosity = mu
 shear.Density = rho
 from_volume = simple.WallTraction(Input=shear)
-from_volume.Pressure = ["POINTS", "p"]
+from_volume.Pressure = ["POINTS", "static_pressure"]
 from_volume.ReferencePressure = par["p_inf"]
 from_volume.ShearSource = "Wall shear stress array"
 from_volume.WallShearStress = ["CELLS", "Wall Shear Stress"]

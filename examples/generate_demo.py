@@ -13,31 +13,38 @@ Fluid Mechanics, §20).  The hydrostatic part -rho g z is added to the
 dynamic pressure (it is balanced by the body force and does not disturb the
 velocity field).
 
-Output (default folder data/demo, or the first command-line argument)
----------------------------------------------------------------------
+Output (default folder examples/demo, or the first command-line argument)
+-------------------------------------------------------------------------
 * ``bead.vtm`` + ``bead/*.vtp`` (inline binary): the sphere surface, with
   faces ordered as a solver would export them (right-hand normal into the
   wall), split into three blocks by polar angle:
   "Upper Cap" (theta < 60 deg), "Equator Band" (60..120 deg) and
-  "Lower Cap" (theta > 120 deg).  Arrays: point ``p`` (Pa, static
-  pressure), cell ``wallShearStress`` (Pa, 3), cell ``grad(U)`` (1/s, 9,
-  row-major du_i/dx_j), cell ``RegionId`` (int32: 0, 1, 2).
+  "Lower Cap" (theta > 120 deg).  Arrays: point ``static_pressure`` (Pa),
+  cell ``wall_shear`` (Pa, 3, the wall shear stress), cell
+  ``velocity_gradient`` (1/s, 9, row-major du_i/dx_j), cell ``zone_id``
+  (int32: 0, 1, 2).
 * ``analytic.json``: scenario parameters and the exact loads on each
   spherical zone and on the whole bead.
 * ``bead_volume.vtu`` (inline binary): the oil around the bead, a
   spherical shell R <= r <= 3R of hexahedra (wedges in the two polar rows)
   on the same 36 x 72 latitude/longitude lattice as the surface, 18 radial
-  layers graded toward the bead (``wallloads_scenes.spherical_shell``,
+  layers graded toward the bead (``scenes.spherical_shell``,
   stretch 2: first layer 0.037 R, last 0.24 R).  Its inner boundary is the
   bead surface face for face (same coordinates, same face order).  Cell
-  arrays, evaluated at the cell centroids (vertex means): ``U`` (m/s, 3),
-  the velocity in the bead frame -- Stokes flow past the translating sphere
-  plus the flow of the rotating sphere, so U = Omega x x on the bead -- and
-  ``p`` (Pa), the static pressure p_inf + Stokes pressure - rho g z, equal
-  to the surface ``p`` on the bead.  The file is not used by bead_loads.py;
-  it feeds Shear Projection (tests/python/test_shear_demo_volume.py).
+  arrays, evaluated at the cell centroids (vertex means): ``velocity``
+  (m/s, 3), the velocity in the bead frame -- Stokes flow past the
+  translating sphere plus the flow of the rotating sphere, so it equals
+  Omega x x on the bead -- and ``static_pressure`` (Pa), p_inf + Stokes
+  pressure - rho g z, equal to the surface ``static_pressure`` on the bead.
+  It feeds Shear Projection (the volume path of bead_loads.py and
+  tests/python/test_shear_demo_volume.py).
 
-Usage: ``pvpython data/generate_demo.py [outdir]``
+Usage: ``pvpython examples/generate_demo.py [outdir]``
+
+The meshes, the analytic Stokes fields and the VTK writers come from the
+scene library the tests use, ``tests/python/scenes`` (found relative to this
+file, so the generator runs from any directory), so the demo and the tests
+share one implementation.
 """
 
 import glob
@@ -47,8 +54,10 @@ import sys
 
 import numpy as np
 
-sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-import wallloads_scenes as ws  # noqa: E402
+# The scene library lives with the tests: <repository>/tests/python/scenes.
+sys.path.insert(0, os.path.normpath(os.path.join(os.path.dirname(os.path.abspath(__file__)),
+                                                 "..", "tests", "python")))
+import scenes as ws  # noqa: E402
 
 # --- Scenario parameters (SI) ------------------------------------------------
 RADIUS = 1.0e-3                      # m
@@ -66,9 +75,9 @@ P_INF = 1.0e5                        # Pa, far-field pressure at z = 0
 N_POLAR, N_AZIMUTH = 36, 72
 VOLUME_OUTER_RADIUS = 3.0 * RADIUS   # m, outer boundary of the fluid volume
 VOLUME_N_RADIAL = 18                 # radial layers (n_polar / 2)
-VOLUME_STRETCH = 2.0                 # wallloads_scenes.stretched_nodes grading
+VOLUME_STRETCH = 2.0                 # scenes.stretched_nodes grading
 ORDERING = "into_wall"
-REGIONS = [  # (block name, RegionId, theta range in degrees)
+REGIONS = [  # (block name, zone_id, theta range in degrees)
     ("Upper Cap", 0, (0.0, 60.0)),
     ("Equator Band", 1, (60.0, 120.0)),
     ("Lower Cap", 2, (120.0, 180.0)),
@@ -228,11 +237,11 @@ def build_blocks():
         pd = ws.polydata(
             P[used], faces,
             cell_arrays={
-                "wallShearStress": fields["wss"][sel],
-                "grad(U)": fields["grad"][sel],
-                "RegionId": np.full(sel.size, rid, dtype=np.int32),
+                "wall_shear": fields["wss"][sel],
+                "velocity_gradient": fields["grad"][sel],
+                "zone_id": np.full(sel.size, rid, dtype=np.int32),
             },
-            point_arrays={"p": p_points[used]},
+            point_arrays={"static_pressure": p_points[used]},
         )
         blocks.append((name, pd))
         stats[name] = {
@@ -261,8 +270,8 @@ def verify(path, blocks):
         assert got is not None and got.GetNumberOfCells() == pd.GetNumberOfCells() > 0, name
         assert got.GetNumberOfPoints() == pd.GetNumberOfPoints(), name
         for data_got, data_ref, names in ((got.GetCellData(), pd.GetCellData(),
-                                           ("wallShearStress", "grad(U)", "RegionId")),
-                                          (got.GetPointData(), pd.GetPointData(), ("p",))):
+                                           ("wall_shear", "velocity_gradient", "zone_id")),
+                                          (got.GetPointData(), pd.GetPointData(), ("static_pressure",))):
             for a in names:
                 arr = data_got.GetArray(a)
                 assert arr is not None, (name, a)
@@ -298,9 +307,10 @@ def volume_pressure(x):
 
 def build_volume(n_polar=N_POLAR, n_azimuth=N_AZIMUTH, n_radial=VOLUME_N_RADIAL,
                  stretch=VOLUME_STRETCH, outer_radius=VOLUME_OUTER_RADIUS):
-    """The fluid shell around the bead as a vtkUnstructuredGrid with cell U and p.
+    """The fluid shell around the bead as a vtkUnstructuredGrid with cell
+    ``velocity`` and ``static_pressure``.
 
-    The defaults make data/demo/bead_volume.vtu; other sizes give the
+    The defaults make examples/demo/bead_volume.vtu; other sizes give the
     refinement family of the convergence tests (n_radial = n_polar / 2 keeps
     the cell shapes).
     """
@@ -308,7 +318,8 @@ def build_volume(n_polar=N_POLAR, n_azimuth=N_AZIMUTH, n_radial=VOLUME_N_RADIAL,
                             stretch=stretch, center=CENTER)
     xc = ws.cell_vertex_means(sh["points"], sh["cells"])
     return ws.unstructured_grid(sh["points"], sh["cells"], sh["types"],
-                                cell_arrays={"U": volume_velocity(xc), "p": volume_pressure(xc)})
+                                cell_arrays={"velocity": volume_velocity(xc),
+                                             "static_pressure": volume_pressure(xc)})
 
 
 def verify_volume(path, grid):
@@ -327,7 +338,7 @@ def verify_volume(path, grid):
                                   vtk_to_numpy(grid.GetPoints().GetData()))
     np.testing.assert_array_equal(vtk_to_numpy(got.GetCellTypesArray()),
                                   vtk_to_numpy(grid.GetCellTypesArray()))
-    for a in ("U", "p"):
+    for a in ("velocity", "static_pressure"):
         np.testing.assert_array_equal(vtk_to_numpy(got.GetCellData().GetArray(a)),
                                       vtk_to_numpy(grid.GetCellData().GetArray(a)))
     P, F, _ = ws.uv_sphere(RADIUS, N_POLAR, N_AZIMUTH, center=CENTER)
@@ -355,7 +366,7 @@ def main(outdir):
         loads = zone_loads(np.radians(d1), np.radians(d2))
         entry = {"theta_range_deg": [d1, d2]}
         if rid is not None:
-            entry["RegionId"] = rid
+            entry["zone_id"] = rid
         entry["area"] = float(loads["area"])
         for key in ("pressure_force", "viscous_force", "total_force",
                     "pressure_moment", "viscous_moment", "total_moment",
@@ -399,9 +410,11 @@ def main(outdir):
             "reynolds_number": reynolds_number(),
             "mesh": {"generator": "uv_sphere", "n_polar": N_POLAR, "n_azimuth": N_AZIMUTH,
                      "ordering": ORDERING},
-            "arrays": {"point": {"p": "Pa"},
-                       "cell": {"wallShearStress": "Pa", "grad(U)": "1/s, row-major du_i/dx_j",
-                                "RegionId": "int32"}},
+            "arrays": {"point": {"static_pressure": "Pa"},
+                       "cell": {"wall_shear": "Pa, wall shear stress",
+                                "velocity_gradient": "1/s, row-major du_i/dx_j",
+                                "zone_id": "int32, the block's zone"},
+                       "volume_cell": {"velocity": "m/s, bead frame", "static_pressure": "Pa"}},
         },
         "reference_totals": {
             "stokes_drag_z": 6.0 * np.pi * MU * RADIUS * U_SPEED,

@@ -6,6 +6,7 @@
 #include "WallShearFaces.h"
 
 #include "vtkCellData.h"
+#include "vtkDataSetAttributes.h"
 #include "vtkCellTypes.h"
 #include "vtkCompositeDataSet.h"
 #include "vtkDataAssembly.h"
@@ -64,6 +65,48 @@ bool HasVolumeCells(vtkDataSet* ds)
   for (vtkIdType c = 0; c < ds->GetNumberOfCells(); ++c)
   {
     if (vtkCellTypes::GetDimension(static_cast<unsigned char>(ds->GetCellType(c))) == 3)
+    {
+      return true;
+    }
+  }
+  return false;
+}
+
+/// The first 3-component numeric array of the first volume block that has
+/// one, cell data before point data; unset if none.
+ArraySelection FirstVector(const std::vector<vtkDataSet*>& volume)
+{
+  ArraySelection sel;
+  for (vtkDataSet* ds : volume)
+  {
+    for (int onPoints = 0; onPoints < 2; ++onPoints)
+    {
+      vtkDataSetAttributes* attrs = onPoints
+        ? static_cast<vtkDataSetAttributes*>(ds->GetPointData())
+        : static_cast<vtkDataSetAttributes*>(ds->GetCellData());
+      for (int i = 0; i < attrs->GetNumberOfArrays(); ++i)
+      {
+        vtkDataArray* a = attrs->GetArray(i);
+        if (a && a->GetName() && a->GetNumberOfComponents() == 3 &&
+          std::string(a->GetName()) != vtkDataSetAttributes::GhostArrayName())
+        {
+          sel.Name = a->GetName();
+          sel.OnPoints = onPoints == 1;
+          return sel;
+        }
+      }
+    }
+  }
+  return sel;
+}
+
+/// Whether a volume block has an array of this name (cell or point data).
+bool HasArrayNamed(const std::vector<vtkDataSet*>& volume, const std::string& name)
+{
+  for (vtkDataSet* ds : volume)
+  {
+    if (ds->GetCellData()->GetAbstractArray(name.c_str()) ||
+      ds->GetPointData()->GetAbstractArray(name.c_str()))
     {
       return true;
     }
@@ -308,10 +351,6 @@ int vtkShearProjection::RequestData(
       error = message;
     }
   };
-  if (!s.Velocity.Set())
-  {
-    fail("Shear Projection needs a Velocity array (3 components) on the volume.");
-  }
   if (!s.Density.Set() && !(this->Density > 0 && std::isfinite(this->Density)))
   {
     std::ostringstream os;
@@ -331,7 +370,12 @@ int vtkShearProjection::RequestData(
   std::vector<Leaf> leaves;
   std::vector<std::string> regionNames; // not used: volume blocks are not regions
   ListLeaves(volumeIn, leaves, regionNames);
-  std::vector<VolumeBlock> volume;
+  // Every leaf is checked before VTK is asked anything about its cells (a
+  // short ghost array crashes VTK's structured cell types), then sorted into
+  // volume blocks (with 3-D cells) and patches.
+  std::vector<vtkDataSet*> volumeLeaves;
+  std::vector<std::string> volumeNames;
+  std::set<vtkDataSet*> patchLeaves;
   double surfaceCells = 0;
   for (const Leaf& leaf : leaves)
   {
@@ -339,21 +383,50 @@ int vtkShearProjection::RequestData(
     {
       continue;
     }
-    std::string ghostError;
-    if (!CheckGhostArrays(leaf.Data, leaf.Name, ghostError))
+    std::string leafError;
+    if (!CheckGhostArrays(leaf.Data, leaf.Name, leafError) ||
+      !CheckPointIds(leaf.Data, leaf.Name, leafError))
     {
-      fail(ghostError);
+      fail(leafError);
       continue;
     }
-    if (!HasVolumeCells(leaf.Data))
+    if (HasVolumeCells(leaf.Data))
     {
+      volumeLeaves.push_back(leaf.Data);
+      volumeNames.push_back(leaf.Name);
+    }
+    else
+    {
+      patchLeaves.insert(leaf.Data);
       surfaceCells += static_cast<double>(leaf.Data->GetNumberOfCells());
-      continue;
     }
+  }
+  // ParaView fills the name with "0" when the proxy is created before its
+  // input has data (its array list is empty then): not an array, unset.
+  if (s.Velocity.Name == "0" && !HasArrayNamed(volumeLeaves, s.Velocity.Name))
+  {
+    s.Velocity = ArraySelection();
+  }
+  if (!s.Velocity.Set())
+  {
+    // The default: the first 3-component array of the volume, cell data
+    // first (what the panel preselects; a script may create the filter
+    // before its input has data, when nothing can be preselected).
+    s.Velocity = FirstVector(volumeLeaves);
+    if (!s.Velocity.Set() && !volumeLeaves.empty())
+    {
+      fail("Shear Projection needs a Velocity array (3 components) on the volume; the volume "
+           "has none: " +
+        DescribeArrays(volumeLeaves.front()) + ".");
+    }
+  }
+  std::vector<VolumeBlock> volume;
+  for (std::size_t i = 0; i < volumeLeaves.size(); ++i)
+  {
     VolumeBlock vb;
-    vb.Data = leaf.Data;
-    vb.Name = leaf.Name;
-    vb.Rounding = CoordinateRounding(leaf.Data);
+    vb.Data = volumeLeaves[i];
+    vb.Name = volumeNames[i];
+    vb.Rounding = CoordinateRounding(vb.Data);
     auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
       if (!sel.Set())
       {
@@ -455,8 +528,12 @@ int vtkShearProjection::RequestData(
     {
       WallBlock wb;
       vtkDataSet* leaf = chosen[i].first;
-      if (leaf && HasVolumeCells(leaf))
+      if (leaf && !patchLeaves.count(leaf))
       {
+        if (std::find(volumeLeaves.begin(), volumeLeaves.end(), leaf) == volumeLeaves.end())
+        {
+          continue; // failed its checks above (already reported)
+        }
         fail("Wall Blocks selects block '" + chosen[i].second +
           "', which holds 3-D cells (the volume); select its wall patches instead.");
       }
@@ -499,7 +576,7 @@ int vtkShearProjection::RequestData(
     }
     for (const Leaf& leaf : leaves)
     {
-      if (leaf.Data && !HasVolumeCells(leaf.Data) && leaf.Data->GetNumberOfCells() > 0)
+      if (leaf.Data && patchLeaves.count(leaf.Data) && leaf.Data->GetNumberOfCells() > 0)
       {
         patchNames.push_back(leaf.Name);
       }
@@ -509,7 +586,8 @@ int vtkShearProjection::RequestData(
   for (WallBlock& wb : walls)
   {
     std::string ghostError;
-    if (!CheckGhostArrays(wb.Out, wb.Name, ghostError))
+    if (!CheckGhostArrays(wb.Out, wb.Name, ghostError) ||
+      !CheckPointIds(wb.Out, wb.Name, ghostError))
     {
       fail(ghostError);
     }

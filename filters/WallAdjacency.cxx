@@ -161,19 +161,31 @@ public:
   {
   }
 
-  /// Read cell c. False if it is not a 3-D cell, or a 3-D cell without faces
-  /// (then `unsupported` is set).
-  bool Read(vtkIdType c, bool& unsupported)
+  /// Read cell c: its points and corners and, unless `cornersOnly`, its
+  /// faces. False if it is not a 3-D cell, or a 3-D cell without faces (then
+  /// `unsupported` is set).
+  bool Read(vtkIdType c, bool& unsupported, bool cornersOnly = false)
   {
     unsupported = false;
-    const int type = this->Data->GetCellType(c);
+    const int type = this->Grid ? this->Grid->GetCellType(c) : this->Data->GetCellType(c);
     if (vtkCellTypes::GetDimension(static_cast<unsigned char>(type)) != 3)
     {
       return false;
     }
-    this->Data->GetCellPoints(c, this->Ids);
-    const vtkIdType n = this->Ids->GetNumberOfIds();
-    this->Points.assign(this->Ids->GetPointer(0), this->Ids->GetPointer(0) + n);
+    if (this->Grid)
+    {
+      // The connectivity itself, without a vtkIdList per cell.
+      vtkIdType n = 0;
+      const vtkIdType* pts = nullptr;
+      this->Grid->GetCellPoints(c, n, pts);
+      this->Points.assign(pts, pts + n);
+    }
+    else
+    {
+      this->Data->GetCellPoints(c, this->Ids);
+      this->Points.assign(this->Ids->GetPointer(0), this->Ids->GetPointer(0) + this->Ids->GetNumberOfIds());
+    }
+    const vtkIdType n = static_cast<vtkIdType>(this->Points.size());
     this->FaceOffsets.assign(1, 0);
     this->FacePoints.clear();
     if (type == VTK_POLYHEDRON && this->Grid)
@@ -203,7 +215,7 @@ public:
       return false;
     }
     this->Corners.assign(this->Points.begin(), this->Points.begin() + table->NumCorners);
-    for (int f = 0; f < table->NumFaces; ++f)
+    for (int f = 0; f < table->NumFaces && !cornersOnly; ++f)
     {
       for (int k = 0; k < table->Sizes[f]; ++k)
       {
@@ -249,7 +261,7 @@ void BuildBlock(vtkDataSet* ds, WallAdjacency::Block& b)
   for (vtkIdType c = 0; c < numCells; ++c)
   {
     bool unsupported = false;
-    if (!reader.Read(c, unsupported))
+    if (!reader.Read(c, unsupported, true))
     {
       b.NumUnsupported += unsupported ? 1 : 0;
       continue;
@@ -272,7 +284,7 @@ void BuildBlock(vtkDataSet* ds, WallAdjacency::Block& b)
     bool unsupported;
     for (vtkIdType c = 0; c < numCells; ++c)
     {
-      if (volumeCell[c] && reader.Read(c, unsupported))
+      if (volumeCell[c] && reader.Read(c, unsupported, true))
       {
         for (vtkIdType p : reader.Corners)
         {
@@ -288,9 +300,19 @@ void BuildBlock(vtkDataSet* ds, WallAdjacency::Block& b)
 
   // Points as doubles, once (any point type, any dataset kind).
   std::vector<double> xyz(3 * static_cast<std::size_t>(numPoints));
+  const PointView view = MakePointView(ds);
   for (vtkIdType p = 0; p < numPoints; ++p)
   {
-    ds->GetPoint(p, &xyz[3 * p]);
+    if (!view.Data)
+    {
+      ds->GetPoint(p, &xyz[3 * p]); // implicit points (image, rectilinear)
+      continue;
+    }
+    for (int k = 0; k < 3; ++k)
+    {
+      xyz[3 * p + k] = view.IsFloat ? static_cast<const float*>(view.Data)[3 * p + k]
+                                    : static_cast<const double*>(view.Data)[3 * p + k];
+    }
   }
   auto centreOf = [&](const std::vector<vtkIdType>& pts, double x[3]) {
     x[0] = x[1] = x[2] = 0;
@@ -315,7 +337,7 @@ void BuildBlock(vtkDataSet* ds, WallAdjacency::Block& b)
       return it->second;
     }
     bool unsupported;
-    reader.Read(cell, unsupported);
+    reader.Read(cell, unsupported, true);
     const int s = static_cast<int>(b.SampleCell.size());
     b.SampleCell.push_back(cell);
     double x[3];

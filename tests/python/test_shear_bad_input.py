@@ -116,26 +116,28 @@ def quiet(proxy):
 # ---------------------------------------------------------------------------
 
 def check_no_velocity():
-    print("\n== (a) no velocity array selected ==")
+    print("\n== (a) no velocity array selected: the default, or an error naming what exists ==")
     from wallloads.WallLoadsFilters import vtkShearProjection
     vol, _, _, _ = couette_box()
     f = vtkShearProjection()
     f.SetInputData(vol)
+    f.SetViscosity(MU)
     cap = Capture(f)
-    f.GetExecutive().AddObserver("ErrorEvent", lambda *a: None)
     f.Update()
-    expect("VTK class, nothing selected: one error", len(cap.errors) == 1, str(len(cap.errors)))
-    contains_all("VTK class, nothing selected: says what is needed", cap.errors[0], ["Velocity", "3 components"])
-    expect("VTK class, nothing selected: empty output", f.GetOutputDataObject(0).GetNumberOfCells() == 0)
+    # Velocity defaults to the first 3-component array of the volume (issue 8:
+    # a script may create the filter before its input has data); an earlier
+    # build failed here with "needs a Velocity array".
+    expect("VTK class, nothing selected: the first 3-component array is used, no error",
+           not cap.errors and f.GetOutputDataObject(0).GetNumberOfCells() > 0, str(cap.errors))
+    check_good("VTK class, nothing selected", f.GetOutputDataObject(0),
+               T.cell_array(f.GetOutputDataObject(0), "Wall Normal")[:, 1] > 0.5)
 
     src = T.producer(vol)
-    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", ""])
+    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", ""], Viscosity=MU)
     cap = Capture(sp)
-    quiet(sp)
     out = T.output_of(sp)
-    expect("proxy, Velocity set to '': one error", len(cap.errors) == 1, str(len(cap.errors)))
-    contains_all("proxy, Velocity set to '': says what is needed", cap.errors[0], ["Velocity", "3 components"])
-    expect("proxy, Velocity set to '': no output cells", out.GetNumberOfCells() == 0)
+    expect("proxy, Velocity set to '': the default array, no error", not cap.errors and out.GetNumberOfCells() > 0,
+           str(cap.errors))
     simple.Delete(sp)
 
     # A volume with no 3-component array at all: the property has nothing to select.

@@ -270,9 +270,10 @@ public:
         work.Xc.data(), numCells, work.Xw.data(), numCorners, vb.Rounding, gamma,
         gamma + 3 * numCells, info);
       this->Cache.Fit[f] = st == WallFitStatus::Ok ? static_cast<signed char>(info.Dimension)
-        : st == WallFitStatus::TooFewSamples    ? -1
-        : st == WallFitStatus::IllConditioned   ? -2
-                                                : -3;
+        : st == WallFitStatus::TooFewSamples     ? -1
+        : st == WallFitStatus::IllConditioned    ? -2
+        : st == WallFitStatus::NoNormalCurvature ? -4
+                                                 : -3;
     }
   }
 
@@ -527,7 +528,9 @@ private:
         else
         {
           // The neighbours do not determine a quadratic: the near-wall difference.
-          ++counts.N[fit == -1 ? ShearCounts::FitTooFewSamples : ShearCounts::FitIllConditioned];
+          ++counts.N[fit == -1 ? ShearCounts::FitTooFewSamples
+              : fit == -4      ? ShearCounts::FitNoSecondDistance
+                               : ShearCounts::FitIllConditioned];
           NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
           alongWall = true;
         }

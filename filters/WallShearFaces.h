@@ -58,6 +58,7 @@ struct ShearCounts
     Planar,
     FitTooFewSamples,
     FitIllConditioned,
+    FitNoSecondDistance,
     NotComputed,
     Size
   };
@@ -89,7 +90,9 @@ struct WallFaceCache
   std::vector<double> Geometry;  ///< 7 per face: x_f, n (into the fluid), d
   std::vector<vtkIdType> WeightOffsets; ///< CSR into Weights / 3
   std::vector<double> Weights;   ///< 3 per sample: adjacent cell, its stencil, then the corners
-  std::vector<signed char> Fit;  ///< fit dimension, or -1 too few samples, -2 ill-conditioned, -3 bad
+  /// Fit dimension, or -1 too few samples, -2 ill-conditioned, -3 bad input,
+  /// -4 no second distance from the wall.
+  std::vector<signed char> Fit;
 
   enum Outcome
   {

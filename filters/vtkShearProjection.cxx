@@ -726,13 +726,18 @@ int vtkShearProjection::RequestData(
       << " wall faces span only a plane (a mesh one cell thick, as 2-D cases are stored): their "
          "gradient was taken in that plane, with derivatives across it set to zero.");
   }
-  if (root && global[ShearCounts::FitTooFewSamples] + global[ShearCounts::FitIllConditioned] > 0)
+  if (root &&
+    global[ShearCounts::FitTooFewSamples] + global[ShearCounts::FitIllConditioned] +
+        global[ShearCounts::FitNoSecondDistance] >
+      0)
   {
     vtkWarningMacro("Shear Projection: the wall fit used the near-wall difference (first order) on "
       << count(ShearCounts::FitTooFewSamples)
-      << " faces whose adjacent cell has fewer neighbours than a quadratic needs, and on "
+      << " faces whose adjacent cell has fewer neighbours than a quadratic needs, "
+      << count(ShearCounts::FitNoSecondDistance)
+      << " faces with no neighbour at a second distance from the wall (one layer of cells), and "
       << count(ShearCounts::FitIllConditioned)
-      << " faces whose neighbours do not determine a quadratic (e.g. all on one side).");
+      << " faces whose neighbours do not determine a quadratic.");
   }
   if (root && global[ShearCounts::NotFaces] + global[ShearCounts::Degenerate] +
         global[ShearCounts::Interfaces] >

@@ -439,3 +439,46 @@ TEST(WallFit, StatusesAndSampleSelection)
   EXPECT_LT(MaxDiff(r.G, G, 9), 1e-10);
   (void)Eps;
 }
+
+// One layer of cells (every cell at the same distance from the wall): the
+// curvature of the profile along the normal is not determined, and the fit
+// says so rather than returning a first-order result as if it were second.
+TEST(WallFit, OneLayerHasNoNormalCurvature)
+{
+  const double n[3] = { 0, 1, 0 };
+  const double xf[3] = { 0, 0, 0 };
+  const double h = 0.1, d = 0.05;
+  std::vector<double> xc, uc;
+  for (int i = -1; i <= 1; ++i)
+  {
+    for (int k = -1; k <= 1; ++k)
+    {
+      if (i == 0 && k == 0 && !xc.empty())
+      {
+        continue;
+      }
+      xc.insert(xc.end(), { i * h, d, k * h });
+    }
+  }
+  // The adjacent cell first.
+  std::vector<double> ordered = { 0, d, 0 };
+  for (std::size_t k = 0; k < xc.size() / 3; ++k)
+  {
+    if (!(xc[3 * k] == 0 && xc[3 * k + 2] == 0))
+    {
+      ordered.insert(ordered.end(), { xc[3 * k], xc[3 * k + 1], xc[3 * k + 2] });
+    }
+  }
+  const int nc = static_cast<int>(ordered.size() / 3);
+  uc.assign(ordered.size(), 0.0);
+  for (int k = 0; k < nc; ++k)
+  {
+    uc[3 * k] = 2.0 * ordered[3 * k + 1];
+  }
+  const double xw[12] = { -h / 2, 0, -h / 2, h / 2, 0, -h / 2, h / 2, 0, h / 2, -h / 2, 0, h / 2 };
+  const double uw[12] = {};
+  WallFitResult<double> r;
+  EXPECT_EQ(QuadraticWallFit(xf, n, ordered.data(), uc.data(), nc, xw, uw, 4, 1e-17, r),
+    WallFitStatus::NoNormalCurvature);
+  EXPECT_TRUE(std::isnan(r.G[0]));
+}

@@ -23,6 +23,8 @@ and in scripts. Each case failed in an earlier build (stated beside it).
    Blocks ticked gives those patches' shear; without walls a warning says
    every boundary face is a wall and how many; progress is reported and an
    abort leaves NaN with a warning (quiet otherwise).
+6. The wall fit on one layer of cells (no second distance from the wall)
+   uses the near-wall difference and says so, with that reason.
 """
 import numpy as np
 
@@ -403,12 +405,41 @@ def check_panel_and_scripts():
         simple.Delete(p)
 
 
+# ---------------------------------------------------------------------------
+# 6. the wall fit's fallback, counted with its reason
+# ---------------------------------------------------------------------------
+
+def check_fit_fallback():
+    print("\n== 6. the wall fit's fallback ==")
+    # One layer of cells above the wall: no neighbour at a second distance.
+    P, C = box_hexes(4, 1, 4)
+    xc = S.cell_vertex_means(P, C)
+    u = np.zeros_like(xc)
+    u[:, 0] = U_TOP * xc[:, 1] / H
+    src = T.producer(S.mixed_unstructured_grid(P, [(S.VTK_HEXAHEDRON, C)], cell_arrays={"velocity": u}))
+    X, Y, Z = np.linspace(0, 1, 5), np.linspace(0, H, 2), np.linspace(0, 1, 5)
+    wsrc = T.producer(S.polydata(*S.grid_boundary_patch(X, Y, Z, 1, 0)))
+    sp, cap, out = run(src, "Wall fit", walls=wsrc)
+    # The 4 corner cells have 3 neighbours (8 samples with the corners, fewer
+    # than the 10 a quadratic needs); the 12 others have more, all at the
+    # same distance from the wall.
+    T.contains_all("one layer: the fallback is counted with its reasons", " ".join(cap.warnings),
+                   ["used the near-wall difference", "4 faces whose adjacent cell has fewer neighbours",
+                    "12 faces with no neighbour at a second distance"])
+    T.close_worst("one layer: the fallback's values (near-wall difference, exact for Couette)",
+                  T.cell_array(out, "Wall Shear Stress"), [MU * U_TOP / H, 0, 0], rtol=1e-12,
+                  source="White VFF §3-2")
+    for p in (sp, wsrc, src):
+        simple.Delete(p)
+
+
 def main():
     check_quadratic_cells()
     check_ghost_layer()
     check_cache_keys()
     check_no_volume_and_density()
     check_panel_and_scripts()
+    check_fit_fallback()
     T.done(__file__)
 
 

@@ -222,12 +222,17 @@ namespace detail
  * invariant under diagonal scaling). False when one of the first `keep`
  * falls below `pivotTolerance`; a later column whose pivot does is dropped
  * (its unknown set to zero: the least-squares solution without it), which
- * solves in the span of the columns the data determine.
+ * solves in the span of the columns the data determine; `dropped`, when
+ * given, says which.
  */
 template <typename T, int C, int R>
-bool CholeskySolveScaled(
-  const T (&N)[C][C], const T (&r)[C][R], T* X, T pivotTolerance, int keep = C)
+bool CholeskySolveScaled(const T (&N)[C][C], const T (&r)[C][R], T* X, T pivotTolerance,
+  int keep = C, bool* dropped = nullptr)
 {
+  for (int j = 0; dropped && j < C; ++j)
+  {
+    dropped[j] = false;
+  }
   T L[C][C];
   T D[C], invD[C];
   for (int j = 0; j < C; ++j)
@@ -248,6 +253,10 @@ bool CholeskySolveScaled(
       // A column past `keep` that the others (nearly) determine: dropped, as
       // if it were not in the system (its unknown is zero).
       D[j] = invD[j] = T(0);
+      if (dropped)
+      {
+        dropped[j] = true;
+      }
       for (int i = j + 1; i < C; ++i)
       {
         L[i][j] = T(0);

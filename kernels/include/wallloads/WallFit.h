@@ -61,8 +61,12 @@
  * otherwise (SmallMatrix.h): the normal equations square the condition
  * number, so they are kept for well-spread stencils, the common case. Status TooFewSamples when fewer samples than
  * coefficients, IllConditioned when the samples do not determine them (QR
- * diagonal below 1e-10 of the largest after column scaling); the caller then
- * falls back to the near-wall difference and says why.
+ * diagonal below 1e-10 of the largest after column scaling), and
+ * NoNormalCurvature when the samples do not determine the curvature of the
+ * profile along the normal (no second distance from the wall: the fit would
+ * be first order); the caller then falls back to the near-wall difference
+ * and says why. Other terms the samples do not determine (a curvature along
+ * the wall across a one-sided stencil) are left out of the fit.
  */
 #include "wallloads/SmallMatrix.h"
 #include "wallloads/Vector3.h"
@@ -80,6 +84,7 @@ enum class WallFitStatus : std::uint8_t
   Ok = 0,
   TooFewSamples,  ///< fewer samples than coefficients of the quadratic
   IllConditioned, ///< the samples do not determine the quadratic
+  NoNormalCurvature, ///< no second distance from the wall: the profile's curvature is undetermined
   BadInput        ///< a value not finite, no cell, or a zero normal
 };
 
@@ -165,7 +170,7 @@ struct FitBasis
 /// normal matrix of `basis` over the samples, C columns.
 template <typename T, int C>
 bool GradientRowsOfInverse(
-  const FitBasis& basis, const T (*xi)[3], const T* w, int m, int dim, T* Y)
+  const FitBasis& basis, const T (*xi)[3], const T* w, int m, int dim, T* Y, bool* dropped)
 {
   T N[C][C] = {};
   for (int k = 0; k < m; ++k)
@@ -189,24 +194,25 @@ bool GradientRowsOfInverse(
   // The constant and the gradient must be determined; a higher term that
   // the samples do not determine (e.g. a curvature across a one-sided
   // stencil) is left out.
-  return CholeskySolveScaled<T, C, 3>(N, rhs, Y, T(1e-6), 1 + dim);
+  return CholeskySolveScaled<T, C, 3>(N, rhs, Y, T(1e-6), 1 + dim, dropped);
 }
 
 template <typename T>
-bool GradientRows(const FitBasis& basis, const T (*xi)[3], const T* w, int m, int dim, T* Y)
+bool GradientRows(
+  const FitBasis& basis, const T (*xi)[3], const T* w, int m, int dim, T* Y, bool* dropped)
 {
   switch (basis.Columns)
   {
     case 3:
-      return GradientRowsOfInverse<T, 3>(basis, xi, w, m, dim, Y);
+      return GradientRowsOfInverse<T, 3>(basis, xi, w, m, dim, Y, dropped);
     case 6:
-      return GradientRowsOfInverse<T, 6>(basis, xi, w, m, dim, Y);
+      return GradientRowsOfInverse<T, 6>(basis, xi, w, m, dim, Y, dropped);
     case 7:
-      return GradientRowsOfInverse<T, 7>(basis, xi, w, m, dim, Y);
+      return GradientRowsOfInverse<T, 7>(basis, xi, w, m, dim, Y, dropped);
     case 10:
-      return GradientRowsOfInverse<T, 10>(basis, xi, w, m, dim, Y);
+      return GradientRowsOfInverse<T, 10>(basis, xi, w, m, dim, Y, dropped);
     case 13:
-      return GradientRowsOfInverse<T, 13>(basis, xi, w, m, dim, Y);
+      return GradientRowsOfInverse<T, 13>(basis, xi, w, m, dim, Y, dropped);
     default:
       return false;
   }
@@ -372,9 +378,18 @@ WallFitStatus QuadraticWallFitWeights(const T xf[3], const T n[3], const T* xc, 
       continue;
     }
     T Y[13 * 3];
-    if (!detail::GradientRows(*basis, xi, w, m, dim, Y))
+    bool dropped[13];
+    if (!detail::GradientRows(*basis, xi, w, m, dim, Y, dropped))
     {
       continue;
+    }
+    // The curvature along the normal (xi_0^2, the fourth column of every
+    // basis here: 1, the linear terms, then xi_0^2) is what makes the fit
+    // second order; without it the fit is the near-wall difference's
+    // order, and the caller is told.
+    if (dropped[1 + dim])
+    {
+      return WallFitStatus::NoNormalCurvature;
     }
     for (int k = 0; k < m; ++k)
     {

@@ -207,6 +207,371 @@ vtkSmartPointer<vtkPolyData> BoundaryOutput(const VolumeBlock& vb)
 }
 } // namespace
 
+namespace
+{
+/// What one execution gathers before the face loop. Every check only
+/// records the first problem in Error; the ranks agree on the outcome with
+/// one collective before any of them fails.
+struct Execution
+{
+  ShearSettings S;
+  std::string Error;
+  std::vector<Leaf> Leaves;
+  std::vector<vtkDataSet*> VolumeLeaves;
+  std::vector<std::string> VolumeNames;
+  std::set<vtkDataSet*> PatchLeaves;
+  double SurfaceCells = 0;
+  std::vector<VolumeBlock> Volume;
+  std::vector<WallBlock> Walls;
+  std::vector<std::string> PatchNames;
+
+  void Fail(const std::string& message)
+  {
+    if (this->Error.empty())
+    {
+      this->Error = message;
+    }
+  }
+};
+
+/// Sort the input's leaves into volume blocks and patches, after checking
+/// each (before VTK is asked anything about its cells: a short ghost array
+/// crashes VTK's structured cell types); pick the default velocity; fetch
+/// and check the volume arrays.
+void CollectVolume(Execution& x, vtkDataObject* volumeIn)
+{
+  std::vector<std::string> regionNames; // not used: volume blocks are not regions
+  ListLeaves(volumeIn, x.Leaves, regionNames);
+  for (const Leaf& leaf : x.Leaves)
+  {
+    if (!leaf.Data)
+    {
+      continue;
+    }
+    std::string leafError;
+    if (!CheckGhostArrays(leaf.Data, leaf.Name, leafError) ||
+      !CheckPointIds(leaf.Data, leaf.Name, leafError))
+    {
+      x.Fail(leafError);
+      continue;
+    }
+    if (HasVolumeCells(leaf.Data))
+    {
+      x.VolumeLeaves.push_back(leaf.Data);
+      x.VolumeNames.push_back(leaf.Name);
+    }
+    else
+    {
+      x.PatchLeaves.insert(leaf.Data);
+      x.SurfaceCells += static_cast<double>(leaf.Data->GetNumberOfCells());
+    }
+  }
+  ShearSettings& s = x.S;
+  // ParaView fills the name with "0" when the proxy is created before its
+  // input has data (its array list is empty then): not an array, unset.
+  if (s.Velocity.Name == "0" && !HasArrayNamed(x.VolumeLeaves, s.Velocity.Name))
+  {
+    s.Velocity = ArraySelection();
+  }
+  if (!s.Velocity.Set())
+  {
+    // The default: the first 3-component array of the volume, cell data
+    // first (what the panel preselects; a script may create the filter
+    // before its input has data, when nothing can be preselected).
+    s.Velocity = FirstVector(x.VolumeLeaves);
+    if (!s.Velocity.Set() && !x.VolumeLeaves.empty())
+    {
+      x.Fail("Shear Projection needs a Velocity array (3 components) on the volume; the volume "
+             "has none: " +
+        DescribeArrays(x.VolumeLeaves.front()) + ".");
+    }
+  }
+  for (std::size_t i = 0; i < x.VolumeLeaves.size(); ++i)
+  {
+    VolumeBlock vb;
+    vb.Data = x.VolumeLeaves[i];
+    vb.Name = x.VolumeNames[i];
+    vb.Rounding = CoordinateRounding(vb.Data);
+    auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
+      if (!sel.Set())
+      {
+        return;
+      }
+      std::string arrayError;
+      vtkDataArray* a = FindSelectedArray(vb.Data, sel, comps, role, vb.Name, arrayError);
+      if (!a)
+      {
+        x.Fail(arrayError);
+      }
+      view = MakeArrayView(a, sel.OnPoints);
+    };
+    fetch(s.Velocity, 3, "Velocity", vb.Velocity);
+    fetch(s.Gradient, 9, "Velocity Gradient", vb.Gradient);
+    fetch(s.Viscosity, 1, "Viscosity Array", vb.Viscosity);
+    fetch(s.TurbulentViscosity, 1, "Turbulent Viscosity Array", vb.TurbulentViscosity);
+    fetch(s.Density, 1, "Density Array", vb.Density);
+    x.Volume.push_back(vb);
+  }
+}
+
+/// The Walls input, copied into the output.
+void WallsFromInput(Execution& x, vtkDataObject* wallsIn, vtkDataObject* output)
+{
+  auto* tree = vtkDataObjectTree::SafeDownCast(wallsIn);
+  if (!tree)
+  {
+    WallBlock wb;
+    wb.Out = vtkDataSet::SafeDownCast(output);
+    wb.Out->ShallowCopy(wallsIn);
+    wb.Name = "walls";
+    x.Walls.push_back(wb);
+    return;
+  }
+  auto* outTree = vtkDataObjectTree::SafeDownCast(output);
+  outTree->CopyStructure(tree);
+  vtkSmartPointer<vtkDataObjectTreeIterator> it;
+  it.TakeReference(tree->NewTreeIterator());
+  it->VisitOnlyLeavesOn();
+  it->TraverseSubTreeOn();
+  for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
+  {
+    auto* leaf = vtkDataSet::SafeDownCast(it->GetCurrentDataObject());
+    if (!leaf)
+    {
+      continue;
+    }
+    WallBlock wb;
+    wb.Out.TakeReference(leaf->NewInstance());
+    wb.Out->ShallowCopy(leaf);
+    outTree->SetDataSet(it, wb.Out);
+    wb.Name = LeafName(it);
+    x.Walls.push_back(wb);
+  }
+}
+
+/// The patch blocks of the input chosen by Wall Blocks, as output blocks.
+void WallsFromBlocks(Execution& x, vtkDataObject* volumeIn, vtkDataObject* output,
+  const std::vector<std::string>& selectors, const char* assembly)
+{
+  std::vector<std::pair<vtkDataSet*, std::string>> chosen;
+  std::vector<unsigned int> ids;
+  SelectedLeaves(volumeIn, selectors, assembly, chosen, ids);
+  auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
+  if (!mb || ids.empty())
+  {
+    std::ostringstream os;
+    os << "Wall Blocks selects no block of the input (";
+    for (std::size_t i = 0; i < selectors.size(); ++i)
+    {
+      os << (i ? ", " : "") << "'" << selectors[i] << "'";
+    }
+    os << "); pick the wall patches among the input's blocks.";
+    x.Fail(os.str());
+    return;
+  }
+  for (std::size_t i = 0; i < chosen.size(); ++i)
+  {
+    WallBlock wb;
+    vtkDataSet* leaf = chosen[i].first;
+    if (leaf && !x.PatchLeaves.count(leaf))
+    {
+      if (std::find(x.VolumeLeaves.begin(), x.VolumeLeaves.end(), leaf) == x.VolumeLeaves.end())
+      {
+        continue; // failed its checks (already reported)
+      }
+      x.Fail("Wall Blocks selects block '" + chosen[i].second +
+        "', which holds 3-D cells (the volume); select its wall patches instead.");
+    }
+    if (leaf)
+    {
+      wb.Out.TakeReference(leaf->NewInstance());
+      wb.Out->ShallowCopy(leaf);
+    }
+    else
+    {
+      wb.Out = vtkSmartPointer<vtkPolyData>::New(); // held by another rank
+    }
+    wb.Name = chosen[i].second;
+    mb->SetBlock(static_cast<unsigned int>(i), wb.Out);
+    mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
+    x.Walls.push_back(wb);
+  }
+}
+
+/// The boundary of every volume block, as output blocks (or the output).
+void WallsFromBoundary(Execution& x, vtkDataObject* output)
+{
+  auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
+  for (std::size_t i = 0; i < x.Volume.size(); ++i)
+  {
+    WallBlock wb;
+    auto pd = BoundaryOutput(x.Volume[i]);
+    wb.Name = x.Volume[i].Name.empty() ? std::string("boundary") : x.Volume[i].Name + " boundary";
+    wb.BoundaryOf = static_cast<int>(i);
+    if (mb)
+    {
+      mb->SetBlock(static_cast<unsigned int>(i), pd);
+      mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
+      wb.Out = pd;
+    }
+    else
+    {
+      vtkPolyData::SafeDownCast(output)->ShallowCopy(pd);
+      wb.Out = vtkDataSet::SafeDownCast(output);
+    }
+    x.Walls.push_back(wb);
+  }
+  for (const Leaf& leaf : x.Leaves)
+  {
+    if (leaf.Data && x.PatchLeaves.count(leaf.Data) && leaf.Data->GetNumberOfCells() > 0)
+    {
+      x.PatchNames.push_back(leaf.Name);
+    }
+  }
+}
+
+/// Check every wall block and its wall velocity (before any rank may fail).
+void CheckWalls(Execution& x)
+{
+  for (WallBlock& wb : x.Walls)
+  {
+    std::string wallError;
+    if (!CheckGhostArrays(wb.Out, wb.Name, wallError) || !CheckPointIds(wb.Out, wb.Name, wallError))
+    {
+      x.Fail(wallError);
+    }
+    else if (x.S.WallVelocity.Set() && wb.Out->GetNumberOfCells() > 0)
+    {
+      vtkDataArray* a =
+        FindSelectedArray(wb.Out, x.S.WallVelocity, 3, "Wall Velocity", wb.Name, wallError);
+      if (!a)
+      {
+        x.Fail(wallError);
+      }
+      wb.WallVelocity = MakeArrayView(a, x.S.WallVelocity.OnPoints);
+    }
+  }
+}
+
+/// The output arrays of one wall dataset, allocated.
+void AddOutputArrays(vtkDataSet* out)
+{
+  NewCellDoubleArray(out, "Wall Shear Stress", 3);
+  NewCellDoubleArray(out, names::WallNormal, 3);
+  NewCellDoubleArray(out, "Wall Distance", 1);
+  NewCellDoubleArray(out, "Friction Velocity", 1);
+  NewCellDoubleArray(out, "y+", 1);
+  auto regimes = vtkSmartPointer<vtkIntArray>::New();
+  regimes->SetName("Near-Wall Regime");
+  regimes->SetNumberOfTuples(out->GetNumberOfCells());
+  out->GetCellData()->AddArray(regimes);
+}
+
+/// The warnings of one execution, from the counts summed over the ranks
+/// (`global`, with the unsupported cells last) on rank 0; a rank holding
+/// unmatched faces names its blocks.
+void Report(vtkObject* self, const Execution& x, const double* global, const ShearCounts& local,
+  const std::vector<double>& unmatchedPerBlock, bool defaultWalls)
+{
+  auto count = [global](int i) { return static_cast<vtkIdType>(global[i]); };
+  const bool root = ProcessRank() == 0;
+  if (root && defaultWalls)
+  {
+    std::ostringstream os;
+    os << "Shear Projection: no walls chosen, so all " << count(ShearCounts::Faces)
+       << " boundary faces of the volume are taken as walls (outer boundary, inlets and outlets "
+          "included). Connect the wall surfaces to Walls";
+    if (!x.PatchNames.empty())
+    {
+      os << ", or pick the wall patches in Wall Blocks (patch blocks of the input:";
+      for (std::size_t i = 0; i < x.PatchNames.size() && i < 12; ++i)
+      {
+        os << (i ? ", '" : " '") << x.PatchNames[i] << "'";
+      }
+      os << (x.PatchNames.size() > 12 ? ", ...)" : ")");
+    }
+    os << ".";
+    vtkWarningWithObjectMacro(self, << os.str());
+  }
+  if (root && global[ShearCounts::Planar] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: the neighbours of "
+        << count(ShearCounts::Planar) << " of " << count(ShearCounts::Faces)
+        << " wall faces span only a plane (a mesh one cell thick, as 2-D cases are stored): "
+           "their gradient was taken in that plane, with derivatives across it set to zero.");
+  }
+  if (root &&
+    global[ShearCounts::FitTooFewSamples] + global[ShearCounts::FitIllConditioned] +
+        global[ShearCounts::FitNoSecondDistance] >
+      0)
+  {
+    vtkWarningWithObjectMacro(self,
+      "Shear Projection: the wall fit used the near-wall difference (first order) on "
+        << count(ShearCounts::FitTooFewSamples)
+        << " faces whose adjacent cell has fewer neighbours than a quadratic needs, "
+        << count(ShearCounts::FitNoSecondDistance)
+        << " faces with no neighbour at a second distance from the wall (one layer of cells), "
+           "and "
+        << count(ShearCounts::FitIllConditioned)
+        << " faces whose neighbours do not determine a quadratic.");
+  }
+  if (root &&
+    global[ShearCounts::NotFaces] + global[ShearCounts::Degenerate] +
+        global[ShearCounts::Interfaces] >
+      0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::NotFaces) << " wall cells that are not faces (vertices, lines), "
+        << count(ShearCounts::Degenerate) << " degenerate wall faces (zero area) and "
+        << count(ShearCounts::Interfaces)
+        << " faces shared by two volume blocks (interfaces, not walls) carry NaN.");
+  }
+  if (global[ShearCounts::Unmatched] > 0 && (root || local.N[ShearCounts::Unmatched] > 0))
+  {
+    std::ostringstream where;
+    for (std::size_t w = 0; w < x.Walls.size(); ++w)
+    {
+      if (unmatchedPerBlock[w] > 0)
+      {
+        where << " " << static_cast<vtkIdType>(unmatchedPerBlock[w]) << " of "
+              << x.Walls[w].Out->GetNumberOfCells() << " faces of '" << x.Walls[w].Name << "'";
+      }
+    }
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::Unmatched) << " of " << count(ShearCounts::Faces)
+        << " wall faces match no boundary face of the volume (walls that do not touch it, or "
+           "held by another rank) and carry NaN."
+        << where.str());
+  }
+  if (root && global[ShearCounts::OffWall] + global[ShearCounts::Failed] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::OffWall)
+        << " faces whose adjacent cell centre is not off the wall (degenerate cells) and "
+        << count(ShearCounts::Failed)
+        << " faces whose reconstruction failed (values not finite) carry NaN.");
+  }
+  if (root && global[ShearCounts::BadDensity] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: Density Array '"
+        << x.S.Density.Name << "' is not positive at the adjacent cell of "
+        << count(ShearCounts::BadDensity)
+        << " wall faces; they carry NaN shear, friction velocity and y+.");
+  }
+  if (root && global[ShearCounts::Size] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::Size)
+        << " 3-D cells of a kind without faces (convex point sets) were ignored.");
+  }
+  if (root && global[ShearCounts::NotComputed] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection was aborted: "
+        << count(ShearCounts::NotComputed) << " wall faces were not computed and carry NaN.");
+  }
+}
+} // namespace
+
 struct vtkShearProjection::AdjacencyCache
 {
   WallAdjacency Blocks;
@@ -328,7 +693,9 @@ int vtkShearProjection::RequestData(
     inputVector[1]->GetNumberOfInformationObjects() ? vtkDataObject::GetData(inputVector[1], 0) : nullptr;
   vtkDataObject* output = vtkDataObject::GetData(outputVector, 0);
 
-  ShearSettings s;
+  // Fetch: the properties, the volume blocks and their arrays.
+  Execution x;
+  ShearSettings& s = x.S;
   s.Velocity = SelectedArray(this, VELOCITY_ARRAY);
   s.WallVelocity = SelectedArray(this, WALL_VELOCITY_ARRAY);
   s.Gradient = SelectedArray(this, VELOCITY_GRADIENT_ARRAY);
@@ -341,339 +708,109 @@ int vtkShearProjection::RequestData(
   s.DensityValue = this->Density;
   s.Kappa = this->WallLawKappa;
   s.B = this->WallLawB;
-
-  // Every check below only records the first problem; the ranks agree on
-  // the outcome with one collective before any of them fails.
-  std::string error;
-  auto fail = [&error](const std::string& message) {
-    if (error.empty())
-    {
-      error = message;
-    }
-  };
   if (!s.Density.Set() && !(this->Density > 0 && std::isfinite(this->Density)))
   {
     std::ostringstream os;
     os << "Density is " << this->Density
        << " kg/m^3; it must be positive (it divides the friction velocity and y+).";
-    fail(os.str());
+    x.Fail(os.str());
   }
   if (!(this->Viscosity >= 0 && std::isfinite(this->Viscosity)))
   {
     std::ostringstream os;
     os << "Viscosity is " << this->Viscosity << "; it must not be negative.";
-    fail(os.str());
+    x.Fail(os.str());
   }
-
-  // Volume blocks (leaves with 3-D cells) and their arrays; the other
-  // leaves are patches (or empty pieces).
-  std::vector<Leaf> leaves;
-  std::vector<std::string> regionNames; // not used: volume blocks are not regions
-  ListLeaves(volumeIn, leaves, regionNames);
-  // Every leaf is checked before VTK is asked anything about its cells (a
-  // short ghost array crashes VTK's structured cell types), then sorted into
-  // volume blocks (with 3-D cells) and patches.
-  std::vector<vtkDataSet*> volumeLeaves;
-  std::vector<std::string> volumeNames;
-  std::set<vtkDataSet*> patchLeaves;
-  double surfaceCells = 0;
-  for (const Leaf& leaf : leaves)
-  {
-    if (!leaf.Data)
-    {
-      continue;
-    }
-    std::string leafError;
-    if (!CheckGhostArrays(leaf.Data, leaf.Name, leafError) ||
-      !CheckPointIds(leaf.Data, leaf.Name, leafError))
-    {
-      fail(leafError);
-      continue;
-    }
-    if (HasVolumeCells(leaf.Data))
-    {
-      volumeLeaves.push_back(leaf.Data);
-      volumeNames.push_back(leaf.Name);
-    }
-    else
-    {
-      patchLeaves.insert(leaf.Data);
-      surfaceCells += static_cast<double>(leaf.Data->GetNumberOfCells());
-    }
-  }
-  // ParaView fills the name with "0" when the proxy is created before its
-  // input has data (its array list is empty then): not an array, unset.
-  if (s.Velocity.Name == "0" && !HasArrayNamed(volumeLeaves, s.Velocity.Name))
-  {
-    s.Velocity = ArraySelection();
-  }
-  if (!s.Velocity.Set())
-  {
-    // The default: the first 3-component array of the volume, cell data
-    // first (what the panel preselects; a script may create the filter
-    // before its input has data, when nothing can be preselected).
-    s.Velocity = FirstVector(volumeLeaves);
-    if (!s.Velocity.Set() && !volumeLeaves.empty())
-    {
-      fail("Shear Projection needs a Velocity array (3 components) on the volume; the volume "
-           "has none: " +
-        DescribeArrays(volumeLeaves.front()) + ".");
-    }
-  }
-  std::vector<VolumeBlock> volume;
-  for (std::size_t i = 0; i < volumeLeaves.size(); ++i)
-  {
-    VolumeBlock vb;
-    vb.Data = volumeLeaves[i];
-    vb.Name = volumeNames[i];
-    vb.Rounding = CoordinateRounding(vb.Data);
-    auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
-      if (!sel.Set())
-      {
-        return;
-      }
-      std::string arrayError;
-      vtkDataArray* a = FindSelectedArray(vb.Data, sel, comps, role, vb.Name, arrayError);
-      if (!a)
-      {
-        fail(arrayError);
-      }
-      view = MakeArrayView(a, sel.OnPoints);
-    };
-    fetch(s.Velocity, 3, "Velocity", vb.Velocity);
-    fetch(s.Gradient, 9, "Velocity Gradient", vb.Gradient);
-    fetch(s.Viscosity, 1, "Viscosity Array", vb.Viscosity);
-    fetch(s.TurbulentViscosity, 1, "Turbulent Viscosity Array", vb.TurbulentViscosity);
-    fetch(s.Density, 1, "Density Array", vb.Density);
-    volume.push_back(vb);
-  }
+  CollectVolume(x, volumeIn);
   this->UpdateProgress(0.05);
 
   // The adjacency of every volume block (cached while the geometry holds).
   WallAdjacency& adjacency = this->Cache->Blocks;
-  {
-    std::vector<vtkDataSet*> meshes;
-    for (const VolumeBlock& vb : volume)
-    {
-      meshes.push_back(vb.Data);
-    }
-    this->NumberOfAdjacencyBuilds += adjacency.Update(meshes);
-  }
   double volumeCells = 0, unsupportedCells = 0;
-  for (std::size_t i = 0; i < volume.size(); ++i)
+  this->NumberOfAdjacencyBuilds += adjacency.Update(x.VolumeLeaves);
+  for (std::size_t i = 0; i < x.Volume.size(); ++i)
   {
-    volume[i].Adjacency = &adjacency[i];
+    x.Volume[i].Adjacency = &adjacency[i];
     volumeCells += static_cast<double>(adjacency[i].NumVolumeCells);
     unsupportedCells += static_cast<double>(adjacency[i].NumUnsupported);
   }
   this->UpdateProgress(0.3);
 
   // The wall datasets of the output: the Walls input, the chosen patch
-  // blocks, or the boundary of every volume block.
-  std::vector<WallBlock> walls;
-  std::vector<std::string> patchNames;
+  // blocks, or the boundary of every volume block; then validate them.
   const bool byBlocks = !wallsIn && !this->WallBlockSelectors.empty();
   if (wallsIn)
   {
-    if (auto* tree = vtkDataObjectTree::SafeDownCast(wallsIn))
-    {
-      auto* outTree = vtkDataObjectTree::SafeDownCast(output);
-      outTree->CopyStructure(tree);
-      vtkSmartPointer<vtkDataObjectTreeIterator> it;
-      it.TakeReference(tree->NewTreeIterator());
-      it->VisitOnlyLeavesOn();
-      it->TraverseSubTreeOn();
-      for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
-      {
-        auto* leaf = vtkDataSet::SafeDownCast(it->GetCurrentDataObject());
-        if (!leaf)
-        {
-          continue;
-        }
-        WallBlock wb;
-        wb.Out.TakeReference(leaf->NewInstance());
-        wb.Out->ShallowCopy(leaf);
-        outTree->SetDataSet(it, wb.Out);
-        wb.Name = LeafName(it);
-        walls.push_back(wb);
-      }
-    }
-    else
-    {
-      WallBlock wb;
-      wb.Out = vtkDataSet::SafeDownCast(output);
-      wb.Out->ShallowCopy(wallsIn);
-      wb.Name = "walls";
-      walls.push_back(wb);
-    }
+    WallsFromInput(x, wallsIn, output);
   }
   else if (byBlocks)
   {
-    std::vector<std::pair<vtkDataSet*, std::string>> chosen;
-    std::vector<unsigned int> ids;
-    SelectedLeaves(volumeIn, this->WallBlockSelectors, this->WallBlockAssembly, chosen, ids);
-    auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
-    if (!mb || ids.empty())
-    {
-      std::ostringstream os;
-      os << "Wall Blocks selects no block of the input (";
-      for (std::size_t i = 0; i < this->WallBlockSelectors.size(); ++i)
-      {
-        os << (i ? ", " : "") << "'" << this->WallBlockSelectors[i] << "'";
-      }
-      os << "); pick the wall patches among the input's blocks.";
-      fail(os.str());
-    }
-    for (std::size_t i = 0; mb && i < chosen.size(); ++i)
-    {
-      WallBlock wb;
-      vtkDataSet* leaf = chosen[i].first;
-      if (leaf && !patchLeaves.count(leaf))
-      {
-        if (std::find(volumeLeaves.begin(), volumeLeaves.end(), leaf) == volumeLeaves.end())
-        {
-          continue; // failed its checks above (already reported)
-        }
-        fail("Wall Blocks selects block '" + chosen[i].second +
-          "', which holds 3-D cells (the volume); select its wall patches instead.");
-      }
-      if (leaf)
-      {
-        wb.Out.TakeReference(leaf->NewInstance());
-        wb.Out->ShallowCopy(leaf);
-      }
-      else
-      {
-        wb.Out = vtkSmartPointer<vtkPolyData>::New(); // held by another rank
-      }
-      wb.Name = chosen[i].second;
-      mb->SetBlock(static_cast<unsigned int>(i), wb.Out);
-      mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
-      walls.push_back(wb);
-    }
+    WallsFromBlocks(x, volumeIn, output, this->WallBlockSelectors, this->WallBlockAssembly);
   }
   else
   {
-    auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
-    for (std::size_t i = 0; i < volume.size(); ++i)
-    {
-      WallBlock wb;
-      auto pd = BoundaryOutput(volume[i]);
-      wb.Name = volume[i].Name.empty() ? std::string("boundary") : volume[i].Name + " boundary";
-      wb.BoundaryOf = static_cast<int>(i);
-      if (mb)
-      {
-        mb->SetBlock(static_cast<unsigned int>(i), pd);
-        mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
-        wb.Out = pd;
-      }
-      else
-      {
-        vtkPolyData::SafeDownCast(output)->ShallowCopy(pd);
-        wb.Out = vtkDataSet::SafeDownCast(output);
-      }
-      walls.push_back(wb);
-    }
-    for (const Leaf& leaf : leaves)
-    {
-      if (leaf.Data && patchLeaves.count(leaf.Data) && leaf.Data->GetNumberOfCells() > 0)
-      {
-        patchNames.push_back(leaf.Name);
-      }
-    }
+    WallsFromBoundary(x, output);
   }
-  // The wall velocity on every wall block (before any rank may fail).
-  for (WallBlock& wb : walls)
-  {
-    std::string ghostError;
-    if (!CheckGhostArrays(wb.Out, wb.Name, ghostError) ||
-      !CheckPointIds(wb.Out, wb.Name, ghostError))
-    {
-      fail(ghostError);
-    }
-    else if (s.WallVelocity.Set() && wb.Out->GetNumberOfCells() > 0)
-    {
-      std::string arrayError;
-      vtkDataArray* a =
-        FindSelectedArray(wb.Out, s.WallVelocity, 3, "Wall Velocity", wb.Name, arrayError);
-      if (!a)
-      {
-        fail(arrayError);
-      }
-      wb.WallVelocity = MakeArrayView(a, s.WallVelocity.OnPoints);
-    }
-  }
+  CheckWalls(x);
 
   // One collective: the outcome of every check, and what the ranks hold.
-  double agreed[3] = { error.empty() ? 0.0 : 1.0, volumeCells, surfaceCells };
+  double agreed[3] = { x.Error.empty() ? 0.0 : 1.0, volumeCells, x.SurfaceCells };
   GlobalSum(agreed, 3);
   if (agreed[0] > 0)
   {
-    ReportAgreedFailure(this, error);
+    ReportAgreedFailure(this, x.Error);
     output->Initialize();
     return 0;
   }
   if (agreed[1] == 0)
   {
-    if (ProcessRank() == 0)
+    if (ProcessRank() == 0 && agreed[2] > 0)
     {
-      if (agreed[2] > 0)
-      {
-        vtkErrorMacro("Shear Projection needs the fluid volume (3-D cells) on Input; it holds "
-          << static_cast<vtkIdType>(agreed[2])
-          << " surface cells and no 3-D cell. Connect the volume to Input and the wall "
-             "surfaces to Walls.");
-      }
-      else
-      {
-        vtkErrorMacro("Shear Projection's Input holds no 3-D cells (no volume): nothing to "
-                      "project.");
-      }
+      vtkErrorMacro("Shear Projection needs the fluid volume (3-D cells) on Input; it holds "
+        << static_cast<vtkIdType>(agreed[2])
+        << " surface cells and no 3-D cell. Connect the volume to Input and the wall surfaces "
+           "to Walls.");
+    }
+    else if (ProcessRank() == 0)
+    {
+      vtkErrorMacro("Shear Projection's Input holds no 3-D cells (no volume): nothing to project.");
     }
     output->Initialize();
     return 0;
   }
 
-  // The per-face loop, in chunks (progress, abort).
+  // Dispatch: the per-face loop, in chunks (progress, abort).
   ShearCounts counts;
-  std::vector<double> unmatchedPerBlock(walls.size(), 0);
+  std::vector<double> unmatchedPerBlock(x.Walls.size(), 0);
   vtkIdType totalFaces = 0, doneFaces = 0;
-  for (const WallBlock& wb : walls)
+  for (const WallBlock& wb : x.Walls)
   {
     totalFaces += wb.Out->GetNumberOfCells();
   }
-  this->Cache->Walls.resize(walls.size());
-  for (std::size_t w = 0; w < walls.size(); ++w)
+  this->Cache->Walls.resize(x.Walls.size());
+  for (std::size_t w = 0; w < x.Walls.size(); ++w)
   {
-    WallBlock& wb = walls[w];
+    const WallBlock& wb = x.Walls[w];
     vtkDataSet* out = wb.Out;
     const vtkIdType nf = out->GetNumberOfCells();
-    NewCellDoubleArray(out, "Wall Shear Stress", 3);
-    NewCellDoubleArray(out, names::WallNormal, 3);
-    NewCellDoubleArray(out, "Wall Distance", 1);
-    NewCellDoubleArray(out, "Friction Velocity", 1);
-    NewCellDoubleArray(out, "y+", 1);
-    auto regimes = vtkSmartPointer<vtkIntArray>::New();
-    regimes->SetName("Near-Wall Regime");
-    regimes->SetNumberOfTuples(nf);
-    out->GetCellData()->AddArray(regimes);
+    AddOutputArrays(out);
     ShearCounts blockCounts;
     WallFaceCache& faces = this->Cache->Walls[w];
     if (!this->GetAbortExecute())
     {
-      PrepareWallFaces(s, volume, adjacency, out, wb.BoundaryOf, faces);
+      PrepareWallFaces(s, x.Volume, adjacency, out, wb.BoundaryOf, faces);
     }
     for (vtkIdType begin = 0; begin < nf; begin += ChunkFaces)
     {
       const vtkIdType end = std::min(nf, begin + ChunkFaces);
       if (this->GetAbortExecute())
       {
-        // Faces not computed carry NaN and are reported below.
+        // Faces not computed carry NaN and are reported.
         MarkWallFacesNotComputed(out, begin, end);
         blockCounts.N[ShearCounts::NotComputed] += static_cast<double>(end - begin);
         continue;
       }
-      ComputeWallFaces(s, volume, out, wb.WallVelocity, faces, begin, end, blockCounts);
+      ComputeWallFaces(s, x.Volume, out, wb.WallVelocity, faces, begin, end, blockCounts);
       doneFaces += end - begin;
       this->UpdateProgress(0.3 + 0.7 * static_cast<double>(doneFaces) /
           static_cast<double>(std::max<vtkIdType>(totalFaces, 1)));
@@ -682,32 +819,13 @@ int vtkShearProjection::RequestData(
     counts.Add(blockCounts);
   }
 
-  // Reports: global counts, on rank 0 (a rank with unmatched faces names its blocks).
+  // Attach: the reports, from counts summed over the ranks.
   double global[ShearCounts::Size + 1];
   std::copy(counts.N, counts.N + ShearCounts::Size, global);
   global[ShearCounts::Size] = unsupportedCells;
   GlobalSum(global, ShearCounts::Size + 1);
-  auto count = [&global](int i) { return static_cast<vtkIdType>(global[i]); };
-  const bool root = ProcessRank() == 0;
-  if (root && !wallsIn && !byBlocks)
-  {
-    std::ostringstream os;
-    os << "Shear Projection: no walls chosen, so all " << count(ShearCounts::Faces)
-       << " boundary faces of the volume are taken as walls (outer boundary, inlets and outlets "
-          "included). Connect the wall surfaces to Walls";
-    if (!patchNames.empty())
-    {
-      os << ", or pick the wall patches in Wall Blocks (patch blocks of the input:";
-      for (std::size_t i = 0; i < patchNames.size() && i < 12; ++i)
-      {
-        os << (i ? ", '" : " '") << patchNames[i] << "'";
-      }
-      os << (patchNames.size() > 12 ? ", ...)" : ")");
-    }
-    os << ".";
-    vtkWarningMacro(<< os.str());
-  }
-  if (root && s.Method == GRADIENT_TENSOR && s.Gradient.Set() &&
+  Report(this, x, global, counts, unmatchedPerBlock, !wallsIn && !byBlocks);
+  if (ProcessRank() == 0 && s.Method == GRADIENT_TENSOR && s.Gradient.Set() &&
     this->Cache->GradientNoted != s.Gradient.Name)
   {
     this->Cache->GradientNoted = s.Gradient.Name; // said once per filter and array
@@ -718,82 +836,6 @@ int vtkShearProjection::RequestData(
          "the wall shear on coarse near-wall cells (by up to half; see README). Wall fit (second "
          "order, with no slip at the wall) or Velocity Gradient = None (a least-squares gradient "
          "with the wall) include the wall.");
-  }
-  if (root && global[ShearCounts::Planar] > 0)
-  {
-    vtkWarningMacro("Shear Projection: the neighbours of "
-      << count(ShearCounts::Planar) << " of " << count(ShearCounts::Faces)
-      << " wall faces span only a plane (a mesh one cell thick, as 2-D cases are stored): their "
-         "gradient was taken in that plane, with derivatives across it set to zero.");
-  }
-  if (root &&
-    global[ShearCounts::FitTooFewSamples] + global[ShearCounts::FitIllConditioned] +
-        global[ShearCounts::FitNoSecondDistance] >
-      0)
-  {
-    vtkWarningMacro("Shear Projection: the wall fit used the near-wall difference (first order) on "
-      << count(ShearCounts::FitTooFewSamples)
-      << " faces whose adjacent cell has fewer neighbours than a quadratic needs, "
-      << count(ShearCounts::FitNoSecondDistance)
-      << " faces with no neighbour at a second distance from the wall (one layer of cells), and "
-      << count(ShearCounts::FitIllConditioned)
-      << " faces whose neighbours do not determine a quadratic.");
-  }
-  if (root && global[ShearCounts::NotFaces] + global[ShearCounts::Degenerate] +
-        global[ShearCounts::Interfaces] >
-      0)
-  {
-    vtkWarningMacro("Shear Projection: "
-      << count(ShearCounts::NotFaces) << " wall cells that are not faces (vertices, lines), "
-      << count(ShearCounts::Degenerate) << " degenerate wall faces (zero area) and "
-      << count(ShearCounts::Interfaces)
-      << " faces shared by two volume blocks (interfaces, not walls) carry NaN.");
-  }
-  if (global[ShearCounts::Unmatched] > 0 && (root || counts.N[ShearCounts::Unmatched] > 0))
-  {
-    std::ostringstream where;
-    for (std::size_t w = 0; w < walls.size(); ++w)
-    {
-      if (unmatchedPerBlock[w] > 0)
-      {
-        where << " " << static_cast<vtkIdType>(unmatchedPerBlock[w]) << " of "
-              << walls[w].Out->GetNumberOfCells() << " faces of '" << walls[w].Name << "'";
-      }
-    }
-    vtkWarningMacro("Shear Projection: " << count(ShearCounts::Unmatched) << " of "
-                                         << count(ShearCounts::Faces)
-                                         << " wall faces match no boundary face of the volume "
-                                            "(walls that do not touch it, or held by another rank) "
-                                            "and carry NaN."
-                                         << where.str());
-  }
-  if (root && global[ShearCounts::OffWall] + global[ShearCounts::Failed] > 0)
-  {
-    vtkWarningMacro("Shear Projection: " << count(ShearCounts::OffWall)
-                                         << " faces whose adjacent cell centre is not off the wall "
-                                            "(degenerate cells) and "
-                                         << count(ShearCounts::Failed)
-                                         << " faces whose reconstruction failed (values not "
-                                            "finite) carry NaN.");
-  }
-  if (root && global[ShearCounts::BadDensity] > 0)
-  {
-    vtkWarningMacro("Shear Projection: Density Array '"
-      << s.Density.Name << "' is not positive at the adjacent cell of "
-      << count(ShearCounts::BadDensity) << " wall faces; they carry NaN shear, friction velocity "
-      << "and y+.");
-  }
-  if (root && global[ShearCounts::Size] > 0)
-  {
-    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[ShearCounts::Size])
-                                         << " 3-D cells of a kind without faces (convex point "
-                                            "sets) were ignored.");
-  }
-  if (root && global[ShearCounts::NotComputed] > 0)
-  {
-    vtkWarningMacro("Shear Projection was aborted: " << count(ShearCounts::NotComputed)
-                                                     << " wall faces were not computed and carry "
-                                                        "NaN.");
   }
   this->UpdateProgress(1.0);
   return 1;

@@ -161,17 +161,37 @@ ArrayChoice ChoosePressure(const std::vector<vtkDataSet*>& leaves)
   return best;
 }
 
-ArrayChoice ChooseNamedArray(
-  const std::vector<vtkDataSet*>& leaves, int components, const char* fragment)
+ArrayChoice ChooseNamedArray(const std::vector<vtkDataSet*>& leaves, int components,
+  const char* fragment, const char* preferred)
 {
   ArrayChoice best;
   ForEachCandidate(leaves, components, [&](const std::string& name, bool onPoints) {
-    if (Has(Lower(name), fragment))
+    if (preferred && name == preferred)
     {
       Consider(best, name, onPoints, 0);
     }
+    else if (Has(Lower(name), fragment))
+    {
+      Consider(best, name, onPoints, 1);
+    }
   });
   return best;
+}
+
+bool AllLeavesHaveCellArray(
+  const std::vector<vtkDataSet*>& leaves, const char* name, int components)
+{
+  double all = 1;
+  for (vtkDataSet* ds : leaves)
+  {
+    vtkDataArray* a = ds->GetCellData()->GetArray(name);
+    if (!a || a->GetNumberOfComponents() != components)
+    {
+      all = 0;
+    }
+  }
+  GlobalMin(&all, 1);
+  return all > 0;
 }
 
 void AgreeOnChoice(ArrayChoice& choice)

@@ -56,11 +56,18 @@ struct ArrayChoice
 ArrayChoice ChoosePressure(const std::vector<vtkDataSet*>& leaves);
 
 /**
- * An array of `components` float/double components whose lower-case name
- * contains `fragment` (e.g. 3 and "shear", 9 and "grad"); cell data first.
+ * An array of `components` float/double components named exactly `preferred`
+ * (tier 0; e.g. Shear Projection's "Wall Shear Stress"), else whose
+ * lower-case name contains `fragment` (tier 1; e.g. 3 and "shear", 9 and
+ * "grad"); cell data first.
  */
-ArrayChoice ChooseNamedArray(
-  const std::vector<vtkDataSet*>& leaves, int components, const char* fragment);
+ArrayChoice ChooseNamedArray(const std::vector<vtkDataSet*>& leaves, int components,
+  const char* fragment, const char* preferred = nullptr);
+
+/// Whether every leaf holds a cell array `name` of `components` components,
+/// on every rank (collective).
+bool AllLeavesHaveCellArray(
+  const std::vector<vtkDataSet*>& leaves, const char* name, int components);
 
 /**
  * Make every rank hold the same choice: the best (lowest tier, cell before

@@ -483,7 +483,9 @@ void ResolveAutomatic(Settings& s, bool autoPressure, bool autoShear,
   if (autoShear)
   {
     // Both choices are made on every rank, in this order (collectives).
-    ArrayChoice w = ChooseNamedArray(surfaces, 3, "shear");
+    // Shear Projection's output is preferred to other shear-like arrays
+    // (the wall's own pass through it).
+    ArrayChoice w = ChooseNamedArray(surfaces, 3, "shear", "Wall Shear Stress");
     AgreeOnChoice(w);
     ArrayChoice g = ChooseNamedArray(surfaces, 9, "grad");
     AgreeOnChoice(g);
@@ -512,6 +514,17 @@ void ResolveAutomatic(Settings& s, bool autoPressure, bool autoShear,
       s.ShearSource = vtkWallTraction::NO_SHEAR;
       note << "Shear Source (Automatic): no 3-component array named like a wall shear stress "
               "and no 9-component one named like a velocity gradient, no viscous load. ";
+    }
+  }
+  if (s.Orientation == vtkWallTraction::AUTOMATIC_ORIENTATION)
+  {
+    const bool useArray = AllLeavesHaveCellArray(surfaces, names::WallNormal, 3);
+    s.Orientation =
+      useArray ? vtkWallTraction::WALL_NORMAL_ARRAY : vtkWallTraction::STORED_INTO_WALL;
+    if (useArray)
+    {
+      note << "Orientation (Automatic): the 'Wall Normal' cell array (from the adjacent fluid "
+              "cell). ";
     }
   }
   notice = note.str();

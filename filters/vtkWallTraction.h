@@ -67,6 +67,9 @@
  * point data, never integer arrays); ShearSource AUTOMATIC_SHEAR takes a
  * 3-component array named with 'shear' as the wall shear stress, else a
  * 9-component one named with 'grad' as the velocity gradient, else none.
+ * Orientation AUTOMATIC_ORIENTATION follows a 3-component `Wall Normal` cell
+ * array (Shear Projection's, from the adjacent fluid cell) when every
+ * surface block holds one, and flips the stored order otherwise.
  * The choices are agreed across MPI ranks and reported in an information
  * message; when no load source is left a warning says the loads are zero.
  *
@@ -123,7 +126,8 @@ public:
   {
     STORED_INTO_WALL = 0,  ///< stored order points out of the fluid: flip (default)
     STORED_INTO_FLUID = 1, ///< stored order points into the fluid: keep
-    WALL_NORMAL_ARRAY = 2  ///< agree with the `Wall Normal` cell array
+    WALL_NORMAL_ARRAY = 2, ///< agree with the `Wall Normal` cell array
+    AUTOMATIC_ORIENTATION = 3 ///< WALL_NORMAL_ARRAY when every surface block has one, else STORED_INTO_WALL
   };
 
   ///@{
@@ -182,8 +186,9 @@ public:
   ///@}
 
   ///@{
-  /// Orientation of the stored faces; default STORED_INTO_WALL (flip).
-  vtkSetClampMacro(Orientation, int, STORED_INTO_WALL, WALL_NORMAL_ARRAY);
+  /// Orientation of the stored faces; default STORED_INTO_WALL (flip);
+  /// AUTOMATIC_ORIENTATION is the ParaView proxy's default.
+  vtkSetClampMacro(Orientation, int, STORED_INTO_WALL, AUTOMATIC_ORIENTATION);
   vtkGetMacro(Orientation, int);
   ///@}
 

@@ -105,8 +105,6 @@ enum ColumnFlags : unsigned
   X("Reference Speed", "m/s", 1, "Reference Speed, recorded for Load Integration") \
   X("Dynamic Pressure", "Pa", 1, "q = 0.5 Density U_ref^2 of the coefficients") \
   X("Load Direction", "-", 3, "unit Load Direction, Load Integration's default drag direction") \
-  X("Pressure Array", "", 1, "the pressure array used (name and association), or None (text)") \
-  X("Viscous Array", "", 1, "the wall shear stress or velocity gradient array used, or None (text)") \
   X("Skipped Non-Surface Cells", "-", 1, "vertices, lines, strips and 3D cells inside surface blocks") \
   X("Skipped Degenerate Faces", "-", 1, "faces with fewer than 3 corners or zero area") \
   X("Skipped Non-Finite Faces", "-", 1, "faces with NaN/Inf coordinates or values") \
@@ -161,8 +159,9 @@ inline const NamedUnit TractionFields[] = { WALLLOADS_TRACTION_FIELDS(WALLLOADS_
 #undef WALLLOADS_MAKE_NAMED_UNIT
 
 /// Name of the Load Summary's region column. ParaView 5.11's spreadsheet
-/// view orders columns by name (byte order): "Boundary" sorts before every
-/// load column of the summary, so the region comes first.
+/// view shows a table's columns sorted by name, ignoring case (measured by
+/// tests/gui/gui_user.py): "Boundary" sorts before every load column of the
+/// summary, so the region comes first, then "Drag [N]", "Lift [N]".
 constexpr const char* SummaryRegionColumn = "Boundary";
 
 /// Unit of any WallLoads output name (array, field value or column), or

@@ -24,7 +24,6 @@
 #include "vtkSMPThreadLocal.h"
 #include "vtkSMPTools.h"
 #include "vtkSmartPointer.h"
-#include "vtkStringArray.h"
 
 #include <cmath>
 #include <limits>
@@ -426,14 +425,6 @@ void AddFieldValue(vtkFieldData* fd, const char* name, const double* values, int
   SetUnits(fd->GetAbstractArray(name), columns::UnitOf(name));
 }
 
-void AddFieldText(vtkFieldData* fd, const char* name, const std::string& text)
-{
-  auto a = vtkSmartPointer<vtkStringArray>::New();
-  a->SetName(name);
-  a->InsertNextValue(text);
-  fd->AddArray(a);
-}
-
 /// Units on the per-face arrays this filter made (never on the input's).
 void AttachFaceUnits(vtkDataSet* out, vtkDataSet* in)
 {
@@ -777,16 +768,6 @@ int vtkWallTraction::RequestData(
   AddFieldValue(fd, "Reference Speed", &speed, 1);
   AddFieldValue(fd, "Dynamic Pressure", &s.DynamicPressure, 1);
   AddFieldValue(fd, "Load Direction", s.LoadDirection, 3);
-  // Which arrays were used (the automatic choices included), as text.
-  auto describe = [](const ArraySelection& a, const char* kind) {
-    return a.Set() ? a.Name + " (" + (a.OnPoints ? "point" : "cell") + " data" + kind + ")"
-                   : std::string("None");
-  };
-  AddFieldText(fd, "Pressure Array", describe(s.Pressure, ""));
-  AddFieldText(fd, "Viscous Array",
-    s.ShearSource == WALL_SHEAR_STRESS  ? describe(s.WallShearStress, ", wall shear stress")
-      : s.ShearSource == VELOCITY_GRADIENT ? describe(s.VelocityGradient, ", velocity gradient")
-                                           : std::string("None"));
   AddCount(fd, names::SkippedNonSurfaceCells, global[3]);
   AddCount(fd, names::SkippedDegenerateFaces, global[4]);
   AddCount(fd, names::SkippedNonFiniteFaces, global[5]);

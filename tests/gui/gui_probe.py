@@ -73,11 +73,6 @@ def _source_entry(name, proxy, sources):
                 pass
         entry["properties"] = props
     entry["cells"] = proxy.GetDataInformation().GetNumberOfCells()
-    if proxy.GetXMLName() == "WallTraction":
-        fd = proxy.GetClientSideObject().GetOutputDataObject(0).GetFieldData()
-        for key in ("Pressure Array", "Viscous Array"):
-            text = fd.GetAbstractArray(key)
-            entry[key] = text.GetValue(0) if text is not None and text.GetNumberOfValues() else None
     if proxy.GetXMLName() == "LoadIntegration":
         algo = proxy.GetClientSideObject()
         entry["load_table"] = _table(algo.GetOutputDataObject(1))

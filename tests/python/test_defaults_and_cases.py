@@ -29,11 +29,6 @@ def sphere(cell=None, point=None):
     return S.polydata(P, F, cell_arrays=cell or {}, point_arrays=point or {})
 
 
-def fd_text(data, name):
-    a = data.GetFieldData().GetAbstractArray(name)
-    return a.GetValue(0) if a is not None else None
-
-
 def loads(wt_props, data=None, li_props=None, source=None):
     src = source or T.producer(data)
     wt = simple.WallTraction(Input=src, **wt_props)
@@ -48,44 +43,51 @@ def same_totals(label, a, b, rtol=1e-14):
                        rtol=rtol, atol=1e-300, source="same computation")
 
 
+def total_force(source, **props):
+    _, _, rows = loads(dict(Orientation="Stored normals point into the wall", **props), source=source)
+    return rows
+
+
 def check_automatic_pressure():
     print("\n== automatic pressure: names, cell before point, never integers ==")
-    p_cell = RNG.normal(1e3, 50, N)
     data = sphere(cell={"zone_id": np.arange(N, dtype=np.int32) % 3, "temperature": RNG.normal(300, 5, N),
-                        "p": p_cell, "wall_shear": RNG.normal(size=(N, 3))},
-                  point={"p": RNG.normal(1e3, 50, len(P))})
+                        "p": RNG.normal(1e3, 50, N), "wall_shear": RNG.normal(size=(N, 3))},
+                  point={"p": RNG.normal(2e3, 50, len(P))})
     src = T.producer(data)
     wt, li, auto = loads({}, source=src)
-    out = T.output_of(wt)
-    expect("Pressure default is 'Automatic'", wt.Pressure[1] == "Automatic", str(wt.Pressure))
-    expect("picks cell 'p' (a pressure name, cell before point; not zone_id, not temperature)",
-           fd_text(out, "Pressure Array") == "p (cell data)", fd_text(out, "Pressure Array"))
-    expect("Shear Source default 'Automatic' picks 'wall_shear'",
-           fd_text(out, "Viscous Array") == "wall_shear (cell data, wall shear stress)", fd_text(out, "Viscous Array"))
-    _, _, explicit = loads(dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array",
-                                WallShearStress=["CELLS", "wall_shear"], Orientation="Stored normals point into the wall"),
-                           source=src)
-    same_totals("automatic == explicit", auto, explicit)
+    expect("Pressure and Shear Source default to Automatic",
+           wt.Pressure[1] == "Automatic" and wt.ShearSource == "Automatic", "%s %s" % (wt.Pressure, wt.ShearSource))
+    explicit = total_force(src, Pressure=["CELLS", "p"], ShearSource="Wall shear stress array",
+                           WallShearStress=["CELLS", "wall_shear"])
+    same_totals("automatic takes cell 'p' and 'wall_shear' (== explicit)", auto, explicit)
+    # The choice is discriminating: the other candidates give other loads.
+    for label, other in (("point 'p'", ["POINTS", "p"]), ("'temperature'", ["CELLS", "temperature"]),
+                         ("'zone_id'", ["CELLS", "zone_id"])):
+        rows = total_force(src, Pressure=other, ShearSource="Wall shear stress array",
+                           WallShearStress=["CELLS", "wall_shear"])
+        expect("... and not %s (other loads)" % label,
+               np.max(np.abs(rows["Total"]["Force"] - auto["Total"]["Force"])) > 1e-6 * np.max(np.abs(auto["Total"]["Force"])))
 
     # Only an integer zone array and a non-pressure float: the float is taken
     # (the 'first 1-component array'), with a warning naming it.
     data2 = sphere(cell={"zone_id": np.ones(N, dtype=np.int32), "temperature": RNG.normal(300, 5, N)})
-    wt2 = simple.WallTraction(Input=T.producer(data2))
+    src2 = T.producer(data2)
+    wt2 = simple.WallTraction(Input=src2)
     cap = Capture(wt2)
-    out2 = T.output_of(wt2)
-    expect("no pressure-like name: the first float array, never the integer one",
-           fd_text(out2, "Pressure Array") == "temperature (cell data)", fd_text(out2, "Pressure Array"))
-    expect("... and a warning says so", any("temperature" in w and "Pressure" in w for w in cap.warnings),
-           str(cap.warnings))
+    T.output_of(wt2)
+    expect("no pressure-like name: a warning names the float array taken (never the integer one)",
+           any("'temperature'" in w and "Pressure" in w for w in cap.warnings), str(cap.warnings))
+    same_totals("... and the loads are those of 'temperature'", loads({}, source=src2)[2],
+                total_force(src2, Pressure=["CELLS", "temperature"], ShearSource="None"))
 
     # Integers only and no shear: no load source, a warning says the loads are zero.
     data3 = sphere(cell={"zone_id": np.ones(N, dtype=np.int32)})
     wt3 = simple.WallTraction(Input=T.producer(data3))
     cap3 = Capture(wt3)
     out3 = T.output_of(wt3)
-    expect("integers only: no pressure", fd_text(out3, "Pressure Array") == "None")
-    expect("no load source: one warning that the loads are zero",
+    expect("integers only: no load source, one warning that the loads are zero",
            any("no load source" in w and "zero" in w for w in cap3.warnings), str(cap3.warnings))
+    expect("... and the forces are zero", np.all(T.cell_array(out3, "Force") == 0))
     # Pressure Kind None turns the pressure off whatever is selected.
     wt4 = simple.WallTraction(Input=src, PressureKind="None", ShearSource="None")
     cap4 = Capture(wt4)
@@ -99,27 +101,22 @@ def check_automatic_shear_and_orientation():
     grad = RNG.normal(size=(N, 9))
     data = sphere(cell={"p": RNG.normal(size=N), "wall_shear": RNG.normal(size=(N, 3)),
                         "Wall Shear Stress": RNG.normal(size=(N, 3)), "velocity_gradient": grad})
-    out = T.output_of(simple.WallTraction(Input=T.producer(data)))
-    expect("'Wall Shear Stress' preferred to 'wall_shear'",
-           fd_text(out, "Viscous Array").startswith("Wall Shear Stress"), fd_text(out, "Viscous Array"))
+    src = T.producer(data)
+    auto = loads({}, source=src)[2]
+    same_totals("'Wall Shear Stress' preferred to 'wall_shear' and to the gradient", auto,
+                total_force(src, Pressure=["CELLS", "p"], ShearSource="Wall shear stress array",
+                            WallShearStress=["CELLS", "Wall Shear Stress"]))
     data2 = sphere(cell={"p": RNG.normal(size=N), "velocity_gradient": grad, "velocity": RNG.normal(size=(N, 3))})
     src2 = T.producer(data2)
-    wt2 = simple.WallTraction(Input=src2, Viscosity=1.3e-3)
-    out2 = T.output_of(wt2)
-    expect("no shear array: the gradient (never the 3-component 'velocity')",
-           fd_text(out2, "Viscous Array") == "velocity_gradient (cell data, velocity gradient)",
-           fd_text(out2, "Viscous Array"))
-    _, _, auto = loads(dict(Viscosity=1.3e-3), source=src2)
-    _, _, explicit = loads(dict(Pressure=["CELLS", "p"], ShearSource="Velocity gradient",
-                                VelocityGradient=["CELLS", "velocity_gradient"], Viscosity=1.3e-3,
-                                Orientation="Stored normals point into the wall"), source=src2)
-    same_totals("gradient: automatic == explicit", auto, explicit)
+    auto2 = loads(dict(Viscosity=1.3e-3), source=src2)[2]
+    same_totals("no shear array: the gradient with Viscosity (never the 3-component 'velocity')", auto2,
+                total_force(src2, Pressure=["CELLS", "p"], ShearSource="Velocity gradient",
+                            VelocityGradient=["CELLS", "velocity_gradient"], Viscosity=1.3e-3))
     # Orientation Automatic follows a Wall Normal array (Shear Projection's).
     flipped = sphere(cell={"p": RNG.normal(1e3, 1, N)})
     wt_ref = simple.WallTraction(Input=T.producer(flipped), Orientation="Stored normals point into the fluid",
                                  Pressure=["CELLS", "p"], ShearSource="None")
-    ref_out = T.output_of(wt_ref)
-    wn = ref_out.GetCellData().GetArray("Wall Normal")
+    wn = T.output_of(wt_ref).GetCellData().GetArray("Wall Normal")
     with_normals = sphere(cell={"p": T.cell_array(flipped, "p").copy(),
                                 "Wall Normal": np.array([wn.GetTuple3(i) for i in range(N)])})
     _, _, auto_n = loads(dict(ShearSource="None"), data=with_normals)

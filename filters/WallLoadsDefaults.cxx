@@ -268,6 +268,96 @@ void Notice(vtkObject* self, const std::string& text)
   vtkOutputWindowDisplayText(os.str().c_str());
 }
 
+namespace
+{
+const char* Where(const ArrayChoice& c)
+{
+  return c.OnPoints ? "point" : "cell";
+}
+} // namespace
+
+void ResolveAutomatic(AutomaticChoices& s, bool autoPressure, bool autoShear, bool autoOrientation,
+  const std::vector<vtkDataSet*>& surfaces, double viscosity, bool kinematic, std::string& notice,
+  std::string& warning)
+{
+  std::ostringstream note, warn;
+  if (autoPressure)
+  {
+    ArrayChoice p = ChoosePressure(surfaces);
+    AgreeOnChoice(p);
+    s.Pressure = ArraySelection();
+    if (p.Found())
+    {
+      s.Pressure = ArraySelection{ p.Name, p.OnPoints };
+      note << "Pressure (Automatic) is " << Where(p) << " array '" << p.Name << "'";
+      if (!p.Others.empty())
+      {
+        note << " (other candidates: " << QuotedList(p.Others) << ")";
+      }
+      note << ". ";
+      if (p.Tier >= 4)
+      {
+        warn << "No array is named like a pressure: '" << p.Name
+             << "', the first 1-component floating-point array, is taken as the pressure; "
+                "choose Pressure in the panel if it is not. ";
+      }
+    }
+    else
+    {
+      note << "Pressure (Automatic): no 1-component floating-point array, no pressure load. ";
+    }
+  }
+  if (autoShear)
+  {
+    // Both choices are made on every rank, in this order (collectives).
+    // Shear Projection's output is preferred to other shear-like arrays
+    // (the wall's own pass through it).
+    ArrayChoice w = ChooseNamedArray(surfaces, 3, "shear", "Wall Shear Stress");
+    AgreeOnChoice(w);
+    ArrayChoice g = ChooseNamedArray(surfaces, 9, "grad");
+    AgreeOnChoice(g);
+    if (w.Found())
+    {
+      s.ShearSource = ShearWallShearStress;
+      s.WallShearStress = ArraySelection{ w.Name, w.OnPoints };
+      note << "Shear Source (Automatic): wall shear stress " << Where(w) << " array '" << w.Name
+           << "'";
+      if (!w.Others.empty())
+      {
+        note << " (also named like one: " << QuotedList(w.Others) << ")";
+      }
+      note << ". ";
+    }
+    else if (g.Found())
+    {
+      s.ShearSource = ShearVelocityGradient;
+      s.VelocityGradient = ArraySelection{ g.Name, g.OnPoints };
+      note << "Shear Source (Automatic): velocity gradient " << Where(g) << " array '" << g.Name
+           << "' with Viscosity " << viscosity << (kinematic ? " m^2/s" : " Pa s")
+           << " (set Viscosity to your fluid's). ";
+    }
+    else
+    {
+      s.ShearSource = ShearNone;
+      note << "Shear Source (Automatic): no 3-component array named like a wall shear stress "
+              "and no 9-component one named like a velocity gradient, no viscous load. ";
+    }
+  }
+  if (autoOrientation)
+  {
+    const bool useArray = AllLeavesHaveCellArray(surfaces, "Wall Normal", 3);
+    s.Orientation =
+      useArray ? OrientationWallNormalArray : OrientationStoredIntoWall;
+    if (useArray)
+    {
+      note << "Orientation (Automatic): the 'Wall Normal' cell array (from the adjacent fluid "
+              "cell). ";
+    }
+  }
+  notice = note.str();
+  warning = warn.str();
+}
+
 std::string QuotedList(const std::vector<std::string>& names, std::size_t limit)
 {
   std::ostringstream os;

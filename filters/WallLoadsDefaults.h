@@ -7,6 +7,7 @@
  * arrays (from WallLoadsColumns.h), and information messages. Private to the
  * module.
  */
+#include "WallLoadsPipeline.h" // ArraySelection
 #include "vtkType.h"
 
 #include <string>
@@ -75,6 +76,30 @@ bool AllLeavesHaveCellArray(
  * rank must call it, in the same order.
  */
 void AgreeOnChoice(ArrayChoice& choice);
+
+/// What Wall Traction's automatic settings resolve to (its Settings
+/// fields, by reference). Codes as in vtkWallTraction.
+struct AutomaticChoices
+{
+  ArraySelection& Pressure;
+  int& ShearSource;
+  ArraySelection& WallShearStress;
+  ArraySelection& VelocityGradient;
+  int& Orientation;
+};
+/// vtkWallTraction's ShearSources and Orientations codes.
+constexpr int ShearNone = 0, ShearWallShearStress = 1, ShearVelocityGradient = 2;
+constexpr int OrientationStoredIntoWall = 0, OrientationWallNormalArray = 2;
+
+/**
+ * Resolve Wall Traction's automatic choices (Pressure "Automatic", Shear
+ * Source Automatic, Orientation Automatic) from the surface leaves, agreed
+ * over all ranks (collective: every rank calls it with the same flags).
+ * Appends what was chosen to `notice` and doubts to `warning`.
+ */
+void ResolveAutomatic(AutomaticChoices& choices, bool autoPressure, bool autoShear,
+  bool autoOrientation, const std::vector<vtkDataSet*>& surfaces, double viscosity,
+  bool kinematic, std::string& notice, std::string& warning);
 
 /// Set vtkDataArray::UNITS_LABEL() on an array.
 void SetUnits(vtkAbstractArray* array, const char* unit);

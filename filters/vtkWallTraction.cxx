@@ -33,6 +33,14 @@
 
 vtkStandardNewMacro(vtkWallTraction);
 
+// The automatic choices (WallLoadsDefaults) speak this class's codes.
+static_assert(wallloads::ShearNone == vtkWallTraction::NO_SHEAR &&
+    wallloads::ShearWallShearStress == vtkWallTraction::WALL_SHEAR_STRESS &&
+    wallloads::ShearVelocityGradient == vtkWallTraction::VELOCITY_GRADIENT &&
+    wallloads::OrientationStoredIntoWall == vtkWallTraction::STORED_INTO_WALL &&
+    wallloads::OrientationWallNormalArray == vtkWallTraction::WALL_NORMAL_ARRAY,
+  "WallLoadsDefaults.h codes");
+
 namespace
 {
 using namespace wallloads;
@@ -438,99 +446,6 @@ void AttachFaceUnits(vtkDataSet* out, vtkDataSet* in)
   }
 }
 
-const char* Where(const ArrayChoice& c)
-{
-  return c.OnPoints ? "point" : "cell";
-}
-
-/**
- * Resolve the automatic choices of the ParaView defaults (Pressure
- * "Automatic", Shear Source Automatic) from the surface leaves, agreed over
- * all ranks (collective: every rank calls it with the same settings).
- * Appends what was chosen to `notice` and problems to `warning`.
- */
-void ResolveAutomatic(Settings& s, bool autoPressure, bool autoShear,
-  const std::vector<vtkDataSet*>& surfaces, double viscosity, bool kinematic, std::string& notice,
-  std::string& warning)
-{
-  std::ostringstream note, warn;
-  if (autoPressure)
-  {
-    ArrayChoice p = ChoosePressure(surfaces);
-    AgreeOnChoice(p);
-    s.Pressure = ArraySelection();
-    if (p.Found())
-    {
-      s.Pressure = ArraySelection{ p.Name, p.OnPoints };
-      note << "Pressure (Automatic) is " << Where(p) << " array '" << p.Name << "'";
-      if (!p.Others.empty())
-      {
-        note << " (other candidates: " << QuotedList(p.Others) << ")";
-      }
-      note << ". ";
-      if (p.Tier >= 4)
-      {
-        warn << "No array is named like a pressure: '" << p.Name
-             << "', the first 1-component floating-point array, is taken as the pressure; "
-                "choose Pressure in the panel if it is not. ";
-      }
-    }
-    else
-    {
-      note << "Pressure (Automatic): no 1-component floating-point array, no pressure load. ";
-    }
-  }
-  if (autoShear)
-  {
-    // Both choices are made on every rank, in this order (collectives).
-    // Shear Projection's output is preferred to other shear-like arrays
-    // (the wall's own pass through it).
-    ArrayChoice w = ChooseNamedArray(surfaces, 3, "shear", "Wall Shear Stress");
-    AgreeOnChoice(w);
-    ArrayChoice g = ChooseNamedArray(surfaces, 9, "grad");
-    AgreeOnChoice(g);
-    if (w.Found())
-    {
-      s.ShearSource = vtkWallTraction::WALL_SHEAR_STRESS;
-      s.WallShearStress = ArraySelection{ w.Name, w.OnPoints };
-      note << "Shear Source (Automatic): wall shear stress " << Where(w) << " array '" << w.Name
-           << "'";
-      if (!w.Others.empty())
-      {
-        note << " (also named like one: " << QuotedList(w.Others) << ")";
-      }
-      note << ". ";
-    }
-    else if (g.Found())
-    {
-      s.ShearSource = vtkWallTraction::VELOCITY_GRADIENT;
-      s.VelocityGradient = ArraySelection{ g.Name, g.OnPoints };
-      note << "Shear Source (Automatic): velocity gradient " << Where(g) << " array '" << g.Name
-           << "' with Viscosity " << viscosity << (kinematic ? " m^2/s" : " Pa s")
-           << " (set Viscosity to your fluid's). ";
-    }
-    else
-    {
-      s.ShearSource = vtkWallTraction::NO_SHEAR;
-      note << "Shear Source (Automatic): no 3-component array named like a wall shear stress "
-              "and no 9-component one named like a velocity gradient, no viscous load. ";
-    }
-  }
-  if (s.Orientation == vtkWallTraction::AUTOMATIC_ORIENTATION)
-  {
-    const bool useArray = AllLeavesHaveCellArray(surfaces, names::WallNormal, 3);
-    s.Orientation =
-      useArray ? vtkWallTraction::WALL_NORMAL_ARRAY : vtkWallTraction::STORED_INTO_WALL;
-    if (useArray)
-    {
-      note << "Orientation (Automatic): the 'Wall Normal' cell array (from the adjacent fluid "
-              "cell). ";
-    }
-  }
-  notice = note.str();
-  warning = warn.str();
-}
-
 /// The warnings and notices of a finished execution, on rank 0.
 void Report(vtkWallTraction* self, const Settings& s, const double* global,
   const std::vector<std::string>& passed, const std::string& notice)
@@ -644,8 +559,13 @@ int vtkWallTraction::RequestData(
     totalCells += leaf.Data ? static_cast<double>(leaf.Data->GetNumberOfCells()) : 0.0;
   }
   std::string notice, autoWarning;
-  ResolveAutomatic(s, autoPressure, this->ShearSource == AUTOMATIC_SHEAR, surfaces,
-    this->Viscosity, s.Kinematic, notice, autoWarning);
+  {
+    AutomaticChoices choices{ s.Pressure, s.ShearSource, s.WallShearStress, s.VelocityGradient,
+      s.Orientation };
+    ResolveAutomatic(choices, autoPressure, this->ShearSource == AUTOMATIC_SHEAR,
+      this->Orientation == AUTOMATIC_ORIENTATION, surfaces, this->Viscosity, s.Kinematic, notice,
+      autoWarning);
+  }
   if (!autoWarning.empty() && ProcessRank() == 0)
   {
     vtkWarningMacro(<< autoWarning);

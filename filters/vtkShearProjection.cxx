@@ -2,11 +2,14 @@
 #include "vtkShearProjection.h"
 
 #include "WallAdjacency.h"
+#include "WallLoadsColumns.h"
+#include "WallLoadsDefaults.h"
 #include "WallLoadsPipeline.h"
 #include "WallShearFaces.h"
 
 #include "vtkCellData.h"
 #include "vtkDataSetAttributes.h"
+#include "vtkDoubleArray.h"
 #include "vtkCellTypes.h"
 #include "vtkCompositeDataSet.h"
 #include "vtkDataAssembly.h"
@@ -453,18 +456,27 @@ void CheckWalls(Execution& x)
   }
 }
 
-/// The output arrays of one wall dataset, allocated.
+/// The output arrays of one wall dataset, allocated, with their units
+/// (names and units from WallLoadsColumns.h, the list the help shows).
 void AddOutputArrays(vtkDataSet* out)
 {
-  NewCellDoubleArray(out, "Wall Shear Stress", 3);
-  NewCellDoubleArray(out, names::WallNormal, 3);
-  NewCellDoubleArray(out, "Wall Distance", 1);
-  NewCellDoubleArray(out, "Friction Velocity", 1);
-  NewCellDoubleArray(out, "y+", 1);
-  auto regimes = vtkSmartPointer<vtkIntArray>::New();
-  regimes->SetName("Near-Wall Regime");
-  regimes->SetNumberOfTuples(out->GetNumberOfCells());
-  out->GetCellData()->AddArray(regimes);
+  for (const columns::NamedUnit& a : columns::ShearArrays)
+  {
+    vtkSmartPointer<vtkDataArray> array;
+    if (std::string(a.Name) == "Near-Wall Regime")
+    {
+      array = vtkSmartPointer<vtkIntArray>::New();
+    }
+    else
+    {
+      array = vtkSmartPointer<vtkDoubleArray>::New();
+    }
+    array->SetName(a.Name);
+    array->SetNumberOfComponents(a.Components);
+    array->SetNumberOfTuples(out->GetNumberOfCells());
+    SetUnits(array, a.Unit);
+    out->GetCellData()->AddArray(array);
+  }
 }
 
 /// The warnings of one execution, from the counts summed over the ranks

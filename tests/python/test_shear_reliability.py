@@ -358,6 +358,13 @@ def check_panel_and_scripts():
                   [-MU * U_TOP / H, 0, 0], rtol=1e-10, source="White VFF §3-2")
     T.expect("Wall Blocks: the patch's own arrays pass through",
              out.GetBlock(1).GetCellData().GetArray("wall_velocity") is not None)
+    from vtkmodules.vtkCommonCore import vtkDataArray
+    units = {n: out.GetBlock(0).GetCellData().GetArray(n).GetInformation().Get(vtkDataArray.UNITS_LABEL())
+             for n in ("Wall Shear Stress", "Wall Normal", "Wall Distance", "Friction Velocity", "y+",
+                       "Near-Wall Regime")}
+    T.expect("output arrays carry their units (WallLoadsColumns.h, as the help page lists them)",
+             units == {"Wall Shear Stress": "Pa", "Wall Normal": "-", "Wall Distance": "m",
+                       "Friction Velocity": "m/s", "y+": "-", "Near-Wall Regime": "-"}, str(units))
     sp.WallBlocks = ["/Root/fluid"]
     cap = T.Capture(sp)
     T.output_of(sp)

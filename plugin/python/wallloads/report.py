@@ -1,0 +1,727 @@
+"""``wallloads-report``: cases and a TOML config in; CSV, JSON, PNG and a
+self-contained HTML report out, per case, with an index over all cases.
+
+Run by pvbatch (the ``wallloads-report`` launcher arranges the plugin, the
+Python path and the expat fix on every rank), so ``mpirun -np N
+wallloads-report ...`` runs the filters on N ranks while this script, on rank
+0, writes the files.  Thin Python over the C++ filters: Wall Traction (and
+Shear Projection when the shear comes from the volume), Load Integration, and
+Load History / Load Distribution where this build has them.
+
+Exit codes: 0 every case done, 1 a case failed (the others still reported),
+2 bad command line or configuration.
+"""
+import datetime
+import math
+import os
+import platform
+import sys
+import time as _time
+import traceback
+
+from . import batch, cases, config as C, convergence, htmlreport, outputs, render
+
+__all__ = ["run", "version"]
+
+CAUTION = ("These results support, and do not replace, engineering judgement, the applicable local "
+           "codes and standards, and licensed professional practice.")
+
+#: Units of the Load Distribution table (issue 10), used when its arrays carry none.
+DISTRIBUTION_UNITS = {"Bin": "-", "Start": "m", "End": "m", "Centre": "m", "Area": "m^2",
+                      "Pressure Force Per Length": "N/m", "Viscous Force Per Length": "N/m",
+                      "Force Per Length": "N/m", "Drag Per Length": "N/m", "Side Force Per Length": "N/m",
+                      "Lift Per Length": "N/m", "Cumulative Force": "N", "Moment": "N m"}
+STATISTICS_UNITS = {"Samples": "-", "Statistics Start": "s", "Integrated Autocorrelation Time": "s",
+                    "Dominant Frequency": "Hz", "Strouhal Number": "-"}
+
+ORIENTATION = {"into-wall": 0, "into-fluid": 1, "wall-normal-array": 2}
+KIND = {"static": 0, "per-unit-density": 1}
+VISCOSITY_KIND = {"dynamic": 0, "kinematic": 1}
+SHEAR_SOURCE = {"none": 0, "array": 1, "gradient": 2}
+METHOD = {"near-wall-difference": 0, "gradient-tensor": 1, "wall-fit": 2, "wall-law": 3}
+
+
+def version():
+    try:
+        from . import _paths
+        return _paths.VERSION
+    except ImportError:
+        return "unknown"
+
+
+def paraview_version():
+    try:
+        from paraview import servermanager
+        return "%d.%d.%d" % (servermanager.vtkSMProxyManager.GetVersionMajor(),
+                             servermanager.vtkSMProxyManager.GetVersionMinor(),
+                             servermanager.vtkSMProxyManager.GetVersionPatch())
+    except Exception:
+        return "unknown"
+
+
+class Progress:
+    """Progress lines on stderr: '[k/n] case: what'."""
+
+    def __init__(self, total):
+        self.total = total
+        self.index = 0
+        self.name = ""
+
+    def case(self, index, name):
+        self.index, self.name = index, name
+
+    def __call__(self, text):
+        sys.stderr.write("[%d/%d] %s: %s\n" % (self.index, self.total, self.name, text))
+        sys.stderr.flush()
+
+
+class CaseResult:
+    def __init__(self, name, path):
+        self.name, self.path = name, path
+        self.status, self.error = "failed", ""
+        self.rows, self.units, self.record = {}, {}, {}
+        self.seconds = 0.0
+        self.cell_size = {}
+
+
+# ---------------------------------------------------------------------------
+# Entry point
+# ---------------------------------------------------------------------------
+
+def _err(text):
+    sys.stderr.write("wallloads-report: error: %s\n" % text)
+    sys.stderr.flush()
+
+
+def run(argv):
+    try:
+        settings, flags = C.parse(argv)
+        if flags["help"]:
+            sys.stdout.write(C.help_text(version()))
+            return 0
+        if flags["version"]:
+            sys.stdout.write("wallloads-report %s (ParaView %s)\n" % (version(), paraview_version()))
+            return 0
+        if flags["print_config"]:
+            sys.stdout.write(C.to_toml(settings))
+            return 0
+        if settings["output.images"] == "yes" and not render.available():
+            raise C.ConfigError("output.images = 'yes' but there is no X display (DISPLAY is unset): "
+                                "run under Xvfb, or use --images auto|no")
+        out_dir = os.path.abspath(settings["output.directory"])
+        if os.path.exists(out_dir) and not os.path.isdir(out_dir):
+            raise C.ConfigError("output directory %s exists and is not a folder" % out_dir)
+    except C.ConfigError as exc:
+        _err(exc)
+        return 2
+    started = _time.time()
+    simple = batch.load_plugin(threads=False)
+    batch.use_threads(settings["run.smp_backend"])
+    study = bool(settings["convergence.cases"])
+    paths = settings["convergence.cases"] if study else settings["cases"]
+    names = _case_names(paths, ["fine", "medium", "coarse"] if study else None)
+    progress = Progress(len(paths))
+    results = []
+    for i, (path, name) in enumerate(zip(paths, names), 1):
+        progress.case(i, name)
+        results.append(report_case(simple, settings, path, name, out_dir, progress, study))
+    study_result = None
+    if study:
+        study_result = _convergence(settings, results, out_dir)
+    done = [r for r in results if r.status == "done"]
+    failed = [r for r in results if r.status != "done"]
+    if done:
+        _write_index(settings, results, study_result, out_dir)
+    for r in failed:
+        _err("case %s (%s) failed: %s" % (r.name, r.path, r.error))
+    sys.stderr.write("wallloads-report: %d case%s, %d done, %d failed, %.1f s%s\n" % (
+        len(results), "" if len(results) == 1 else "s", len(done), len(failed), _time.time() - started,
+        (": " + os.path.join(out_dir, "index.html")) if done else ""))
+    sys.stderr.flush()
+    if study and study_result is None:
+        return 1
+    return 0 if not failed else 1
+
+
+def _case_names(paths, fixed=None):
+    """A folder name per case: the file name without extension, made unique."""
+    if fixed:
+        return fixed
+    names = []
+    for p in paths:
+        base = os.path.splitext(os.path.basename(p))[0] or "case"
+        name, k = base, 2
+        while name in names:
+            parent = os.path.basename(os.path.dirname(p))
+            name = "%s-%s" % (parent, base) if k == 2 and parent else "%s-%d" % (base, k)
+            k += 1
+        names.append(name)
+    return names
+
+
+# ---------------------------------------------------------------------------
+# One case
+# ---------------------------------------------------------------------------
+
+def report_case(simple, settings, path, name, out_dir, progress, study=False):
+    result = CaseResult(name, path)
+    t0 = _time.time()
+    stage = None
+    made = []
+    try:
+        stage = outputs.Staging(os.path.join(out_dir, name))
+        _run_case(simple, settings, path, name, stage, progress, result, made, study)
+        stage.commit()
+        result.status = "done"
+        result.seconds = _time.time() - t0
+        progress("done in %.1f s -> %s" % (result.seconds, os.path.join(out_dir, name)))
+    except (cases.CaseError, batch.PipelineError) as exc:
+        result.error = str(exc)
+        progress("FAILED: %s" % exc)
+    except Exception as exc:  # a defect of ours: say so, keep going with the other cases
+        result.error = "internal error (%s: %s); please report it with the traceback above" % (
+            type(exc).__name__, exc)
+        traceback.print_exc()
+        progress("FAILED: %s" % result.error)
+    finally:
+        if stage is not None and result.status != "done":
+            stage.discard()
+        for proxy in reversed(made):
+            try:
+                simple.Delete(proxy)
+            except Exception:
+                pass
+    return result
+
+
+def _times(reader):
+    values = reader.TimestepValues
+    if values is None:
+        return []
+    if isinstance(values, (int, float)):
+        return [float(values)]
+    return [float(t) for t in values]
+
+
+def _select_times(settings, times):
+    if not times:
+        return [], None
+    sel = times
+    if settings["time.range"]:
+        t0, t1 = settings["time.range"]
+        span = max(abs(t0), abs(t1), 1.0) * 1e-12
+        sel = [t for t in times if t0 - span <= t <= t1 + span]
+        if not sel:
+            raise cases.CaseError("time.range [%g, %g] s holds none of the case's %d time steps (%g to %g s)"
+                                  % (t0, t1, len(times), times[0], times[-1]))
+    sel = sel[::settings["time.stride"]]
+    rt = settings["time.report"]
+    if rt == "last":
+        report = sel[-1]
+    else:
+        report = min(times, key=lambda t: abs(t - rt))
+    return sel, report
+
+
+def _run_case(simple, settings, path, name, stage, progress, result, made, study):
+    progress("reading %s" % path)
+    files, checksum = cases.case_files(path)
+    with batch.watch() as w:
+        reader, fmt = cases.open_case(simple, path)
+    made.append(reader)
+    if w.errors:
+        raise cases.CaseError("case file %s cannot be read: %s" % (path, w.message()))
+    times = _times(reader)
+    selected, t_report = _select_times(settings, times)
+    t = t_report if t_report is not None else None
+    with batch.watch() as w:
+        blocks = cases.blocks_of(simple, reader, t)
+    if w.errors:
+        raise cases.CaseError("case file %s cannot be read: %s" % (path, w.message()))
+    if not blocks or all(b.cells == 0 for b in blocks):
+        raise cases.CaseError("case file %s holds no cells%s" % (
+            path, (": " + w.message()) if w.errors else " (empty or unreadable)"))
+    walls, volumes, notes = cases.select_blocks(blocks, settings["walls.blocks"])
+    composite = any(b.selector for b in blocks)
+    if composite:
+        wall_src = simple.ExtractBlock(Input=reader, Selectors=[b.selector for b in walls])
+        made.append(wall_src)
+    else:
+        wall_src = reader
+    batch.update(wall_src, t)
+    wall_arrays = cases.arrays_of(wall_src)
+    volume_src, volume_arrays = None, []
+    if volumes:
+        volume_src = simple.ExtractBlock(Input=reader, Selectors=[b.selector for b in volumes])
+        made.append(volume_src)
+    choices = {"walls": [b.path or b.name for b in walls], "volume": [b.path or b.name for b in volumes]}
+    progress("%d wall block%s (%d faces)%s, %s" % (
+        len(walls), "" if len(walls) == 1 else "s", sum(b.cells for b in walls),
+        ", volume of %d cells" % sum(b.cells for b in volumes) if volumes else "",
+        "%d time steps" % len(times) if len(times) > 1 else "steady"))
+
+    # -- pressure ------------------------------------------------------------
+    s = settings
+    p_choice = s["pressure.array"]
+    if p_choice == "none":
+        pressure = None
+    elif p_choice == "auto":
+        pressure = cases.pick_array(wall_arrays, 1, "press")
+        if pressure is None:
+            notes.append("no 1-component floating-point array on the walls: no pressure load")
+    else:
+        pressure = cases.find_array(wall_arrays, p_choice, 1, "pressure")
+    choices["pressure"] = {"array": pressure[1] if pressure else None,
+                           "association": pressure[0] if pressure else None, "how": p_choice}
+
+    # -- shear ----------------------------------------------------------------
+    source = s["shear.source"]
+    shear_arr = gradient = velocity = None
+    if volume_src is not None and source in ("auto", "volume"):
+        batch.update(volume_src, t)
+        volume_arrays = cases.arrays_of(volume_src)
+    if source == "auto":
+        shear_arr = cases.pick_array([a for a in wall_arrays if "shear" in a[1].lower()], 3, "shear") \
+            if s["shear.array"] == "auto" else cases.find_array(wall_arrays, s["shear.array"], 3,
+                                                                 "wall shear stress")
+        if shear_arr:
+            source = "array"
+        else:
+            gradient = cases.pick_array(wall_arrays, 9, "grad") if s["shear.gradient"] == "auto" \
+                else cases.find_array(wall_arrays, s["shear.gradient"], 9, "velocity gradient")
+            if gradient:
+                source = "gradient"
+            elif volume_src is not None and cases.pick_array(
+                    [a for a in volume_arrays if a[0] == "CELLS"], 3, "vel"):
+                source = "volume"
+            else:
+                source = "none"
+                notes.append("no wall shear stress, velocity gradient or volume velocity found: the "
+                             "viscous loads are zero (set shear.source)")
+    if source == "array" and shear_arr is None:
+        shear_arr = cases.pick_array(wall_arrays, 3, "shear") if s["shear.array"] == "auto" \
+            else cases.find_array(wall_arrays, s["shear.array"], 3, "wall shear stress")
+        if shear_arr is None:
+            raise cases.CaseError("shear.source = 'array' but the walls hold no 3-component array; they "
+                                  "have %s" % cases.describe_arrays(wall_arrays))
+    if source == "gradient" and gradient is None:
+        gradient = cases.pick_array(wall_arrays, 9, "grad") if s["shear.gradient"] == "auto" \
+            else cases.find_array(wall_arrays, s["shear.gradient"], 9, "velocity gradient")
+        if gradient is None:
+            raise cases.CaseError("shear.source = 'gradient' but the walls hold no 9-component array; "
+                                  "they have %s" % cases.describe_arrays(wall_arrays))
+    if source == "volume":
+        if volume_src is None:
+            raise cases.CaseError("shear.source = 'volume' but the case holds no volume cells; its "
+                                  "blocks are %s" % cases.describe_blocks(blocks))
+        cell_arrays = [a for a in volume_arrays if a[0] == "CELLS"]
+        velocity = cases.pick_array(cell_arrays, 3, "vel") if s["shear.velocity"] == "auto" \
+            else cases.find_array(volume_arrays, s["shear.velocity"], 3, "velocity", "the volume")
+        if velocity is None:
+            raise cases.CaseError("shear.source = 'volume' but the volume holds no 3-component array; it "
+                                  "has %s" % cases.describe_arrays(volume_arrays))
+    choices["shear"] = {"source": source, "how": s["shear.source"],
+                        "array": shear_arr[1] if shear_arr else None,
+                        "gradient": gradient[1] if gradient else None,
+                        "velocity": velocity[1] if velocity else None,
+                        "method": s["shear.method"] if source == "volume" else None}
+    orientation = s["walls.orientation"]
+    if orientation == "auto":
+        orientation = "wall-normal-array" if source == "volume" else "into-wall"
+    choices["orientation"] = orientation
+
+    # -- optional arrays --------------------------------------------------------
+    on_volume = source == "volume"
+    visc_arrays = volume_arrays if on_volume else wall_arrays
+    visc_where = "the volume" if on_volume else "the walls"
+    extra = {}
+    for key, what, arrays, where in (
+            ("fluid.density_array", "density", wall_arrays, "the walls"),
+            ("fluid.viscosity_array", "viscosity", visc_arrays, visc_where),
+            ("fluid.turbulent_viscosity_array", "turbulent viscosity", visc_arrays, visc_where)):
+        if s[key]:
+            extra[key] = cases.find_array(arrays, s[key], 1, what, where)
+    if s["walls.region_array"]:
+        extra["walls.region_array"] = cases.find_array(wall_arrays, s["walls.region_array"], 1,
+                                                       "region")
+
+    drag, lift = C.effective_axes(s)
+    load_dir = s["axes.load_direction"] or drag
+    rho_ref = s["reference.density"] if s["reference.density"] is not None else s["fluid.density"]
+    choices.update(drag_direction=drag, lift_direction=lift, load_direction=load_dir,
+                   reference_density=rho_ref)
+
+    # -- the filters ------------------------------------------------------------
+    surface_in = wall_src
+    if source == "volume":
+        sp = simple.ShearProjection(Input=volume_src, Walls=wall_src)
+        made.append(sp)
+        sp.Velocity = list(velocity)
+        sp.Method = METHOD[s["shear.method"]]
+        sp.Viscosity = s["fluid.viscosity"]
+        sp.ViscosityKind = VISCOSITY_KIND[s["fluid.viscosity_kind"]]
+        sp.Density = s["fluid.density"]
+        if "fluid.viscosity_array" in extra:
+            sp.ViscosityArray = list(extra["fluid.viscosity_array"])
+        if "fluid.turbulent_viscosity_array" in extra:
+            sp.TurbulentViscosityArray = list(extra["fluid.turbulent_viscosity_array"])
+        surface_in = sp
+    wt = simple.WallTraction(Input=surface_in)
+    made.append(wt)
+    wt.Pressure = list(pressure) if pressure else ["POINTS", "None"]
+    wt.PressureKind = KIND[s["pressure.kind"]]
+    wt.ReferencePressure = s["pressure.reference"]
+    wt.Density = s["fluid.density"]
+    if "fluid.density_array" in extra:
+        wt.DensityArray = list(extra["fluid.density_array"])
+    wt.Viscosity = s["fluid.viscosity"]
+    wt.ViscosityKind = VISCOSITY_KIND[s["fluid.viscosity_kind"]]
+    if not on_volume:
+        if "fluid.viscosity_array" in extra:
+            wt.ViscosityArray = list(extra["fluid.viscosity_array"])
+        if "fluid.turbulent_viscosity_array" in extra:
+            wt.TurbulentViscosityArray = list(extra["fluid.turbulent_viscosity_array"])
+    if source == "array":
+        wt.ShearSource = SHEAR_SOURCE["array"]
+        wt.WallShearStress = list(shear_arr)
+        wt.WallShearStressKind = KIND[s["shear.kind"]]
+    elif source == "gradient":
+        wt.ShearSource = SHEAR_SOURCE["gradient"]
+        wt.VelocityGradient = list(gradient)
+    elif source == "volume":
+        wt.ShearSource = SHEAR_SOURCE["array"]
+        wt.WallShearStress = ["CELLS", "Wall Shear Stress"]
+        wt.WallShearStressKind = 0
+    else:
+        wt.ShearSource = SHEAR_SOURCE["none"]
+    wt.IncludeNormalViscousStress = int(s["shear.include_normal_stress"])
+    wt.Orientation = ORIENTATION[orientation]
+    wt.LoadDirection = list(load_dir)
+    wt.ReferenceSpeed = s["reference.speed"]
+
+    li = simple.LoadIntegration(Input=wt)
+    made.append(li)
+    if "walls.region_array" in extra:
+        li.RegionArray = list(extra["walls.region_array"])
+    li.MomentCentre = list(s["axes.moment_centre"])
+    li.DragDirection = list(drag)
+    li.LiftDirection = list(lift)
+    li.ReferenceDensity = rho_ref
+    li.ReferenceSpeed = s["reference.speed"]
+    li.ReferenceArea = s["reference.area"]
+    li.ReferenceLength = s["reference.length"]
+    li.ReferenceSpan = s["reference.span"]
+
+    progress("loads at t = %s" % ("%g s" % t if t is not None else "(steady)"))
+    with batch.watch() as w:
+        batch.update(li, t)
+    warnings = notes + _unique(w.warnings)
+    table = batch._table_of(li, t)
+    rows = batch.table_rows(table)
+    if not rows:
+        raise batch.PipelineError("Load Integration gave no table: no wall faces reached it")
+    units = batch.column_units(table)
+    result.rows, result.units = rows, units
+
+    # -- distribution and history (when this build has the filters) --------------
+    extras = {}
+    if hasattr(simple, "LoadDistribution"):
+        extras["distribution"] = _distribution(simple, settings, wt, t, drag, lift, made, stage)
+    else:
+        extras["distribution"] = None
+        warnings.append("no distribution: this build has no Load Distribution filter")
+    if len(selected) > 1:
+        if hasattr(simple, "LoadHistory"):
+            extras["history"] = _history(simple, settings, li, selected, made, stage, progress)
+        else:
+            extras["history"] = None
+            warnings.append("no history of the %d time steps: this build has no Load History filter"
+                            % len(selected))
+    else:
+        extras["history"] = None
+
+    # -- pictures ------------------------------------------------------------------
+    images = []
+    want = settings["output.images"]
+    if want == "yes" or (want == "auto" and render.available()):
+        size = settings["output.image_size"]
+        progress("pictures")
+        bounds = wt.GetDataInformation().GetBounds()
+        render.surface(simple, wt, t if t is not None else 0.0, load_dir, stage.path("surface.png"), size,
+                       bounds)
+        images.append(("surface.png", "Walls coloured by the traction along %s" % _vec(load_dir)))
+        hist = extras.get("history")
+        if hist and hist["series"]:
+            render.line_chart(simple, hist["port"], "Time", hist["series"], stage.path("history.png"), size,
+                              "Load history", "Time [s]", "Force [N]")
+            images.append(("history.png", "History of %s" % ", ".join(hist["series"])))
+        dist = extras.get("distribution")
+        if dist and dist["series"]:
+            render.line_chart(simple, dist["port"], "Centre", dist["series"], stage.path("distribution.png"),
+                              size, "Load distribution along %s" % _vec(dist["axis"]),
+                              "Distance along the axis [m]", "Force per length [N/m]")
+            images.append(("distribution.png", "Distribution of %s along %s"
+                           % (", ".join(dist["series"]), _vec(dist["axis"]))))
+    elif want == "auto":
+        warnings.append("no pictures: no X display (DISPLAY is unset); run under Xvfb for them")
+
+    if study:
+        result.cell_size = _cell_size_inputs(simple, settings, rows, volume_src, t, made)
+
+    # -- files ------------------------------------------------------------------------
+    stage.write("loads.csv", outputs.rows_to_csv(rows, units))
+    record = {
+        "wallloads_report": 1,
+        "software": {"name": "WallLoads", "version": version(), "paraview": paraview_version(),
+                     "python": platform.python_version()},
+        "created": datetime.datetime.now(datetime.timezone.utc).strftime("%Y-%m-%dT%H:%M:%SZ"),
+        "case": {"name": name, "file": os.path.abspath(path), "format": fmt, "sha256": checksum,
+                 "files": files, "time_steps": len(times), "selected_time_steps": len(selected),
+                 "report_time": t, "blocks": [{"name": b.name, "path": b.path, "kind": b.kind,
+                                               "cells": b.cells} for b in blocks]},
+        "config": C.as_record(settings),
+        "choices": choices,
+        "units": {k: v for k, v in units.items() if k != "Region"},
+        "regions": {region: {col: {"value": list(v) if isinstance(v, tuple) else v,
+                                   "unit": units.get(col, "")} for col, v in row.items()}
+                    for region, row in rows.items()},
+        "outputs": ["loads.csv", "loads.json"] + [f for f in ("history.csv", "statistics.csv",
+                                                             "distribution.csv") if f in stage.files]
+                   + [i[0] for i in images] + ["report.html"],
+        "warnings": warnings,
+        "caution": CAUTION,
+    }
+    if extras.get("history"):
+        record["statistics"] = extras["history"]["statistics"]
+    result.record = record
+    stage.write("loads.json", outputs.json_text(record))
+    title = settings["output.title"] or name
+    stage.write("report.html", htmlreport.case_page(title, record, rows, units, extras, images, stage.folder,
+                                                    CAUTION))
+
+
+def _unique(items):
+    out = []
+    for i in items:
+        if i not in out:
+            out.append(i)
+    return out
+
+
+def _vec(v):
+    return "(%s)" % ", ".join("%.3g" % (x + 0.0) for x in v)
+
+
+def _distribution(simple, settings, wt, t, drag, lift, made, stage):
+    s = settings
+    ld = simple.LoadDistribution(Input=wt)
+    made.append(ld)
+    axis = s["distribution.axis_direction"] or drag
+    ld.AxisOrigin = list(s["distribution.axis_origin"])
+    ld.AxisDirection = list(axis)
+    ld.NumberOfBins = s["distribution.bins"]
+    if s["distribution.range"]:
+        ld.UseCustomRange = 1
+        ld.Range = list(s["distribution.range"])
+    ld.MomentCentre = list(s["axes.moment_centre"])
+    ld.DragDirection = list(drag)
+    ld.LiftDirection = list(lift)
+    batch.update(ld, t)
+    table = ld.GetClientSideObject().GetOutputDataObject(0)
+    units = dict(DISTRIBUTION_UNITS)
+    units.update({k: v for k, v in batch.column_units(table).items() if v})
+    stage.write("distribution.csv", outputs.table_to_csv(table, units))
+    cols = outputs.table_columns(table)
+    series = [c for c in ("Drag Per Length", "Side Force Per Length", "Lift Per Length") if c in cols]
+    return {"port": ld, "series": series, "axis": axis, "columns": cols, "units": units}
+
+
+def _history(simple, settings, li, selected, made, stage, progress):
+    s = settings
+    hist = simple.LoadHistory(Input=simple.OutputPort(li, 1))
+    made.append(hist)
+    hist.TimeRange = [selected[0], selected[-1]]
+    hist.Stride = s["time.stride"]
+    if s["time.statistics_start"] is not None:
+        hist.StatisticsStart = s["time.statistics_start"]
+    hist.ReferenceLength = s["reference.length"]
+    hist.ReferenceSpeed = s["reference.speed"]
+    n = len(selected)
+    seen = [0]
+
+    def on_progress(obj, event):
+        k = int(obj.GetProgress() * n + 1e-9)
+        while seen[0] < min(k, n):
+            seen[0] += 1
+            progress("time step %d/%d (t = %g s)" % (seen[0], n, selected[seen[0] - 1]))
+
+    algo = hist.GetClientSideObject()
+    tag = algo.AddObserver("ProgressEvent", on_progress)
+    try:
+        batch.update(hist)
+    finally:
+        algo.RemoveObserver(tag)
+    table = algo.GetOutputDataObject(0)
+    stats = algo.GetOutputDataObject(1)
+    base = batch.column_units(li.GetClientSideObject().GetOutputDataObject(1))
+
+    def unit_of(column):
+        if column == "Time":
+            return "s"
+        quantity = column.split(": ", 1)[-1]
+        for suffix in (" X", " Y", " Z"):
+            if quantity.endswith(suffix) and quantity[:-2] in base:
+                quantity = quantity[:-2]
+        return base.get(quantity, "")
+
+    cols = outputs.table_columns(table)
+    units = {c: unit_of(c) for c in cols}
+    stage.write("history.csv", outputs.table_to_csv(table, units))
+    stat_units = dict(STATISTICS_UNITS)
+    stage.write("statistics.csv", outputs.table_to_csv(stats, stat_units))
+    stat_cols = outputs.table_columns(stats)
+    statistics = {}
+    quantities = stat_cols.get("Quantity", [])
+    for r, q in enumerate(quantities):
+        statistics[q] = {c: {"value": v[r], "unit": stat_units.get(c, unit_of(q))}
+                         for c, v in stat_cols.items() if c != "Quantity"}
+    series = [c for c in ("Total: Drag", "Total: Side Force", "Total: Lift") if c in cols]
+    return {"port": hist, "series": series, "columns": cols, "units": units, "statistics": statistics,
+            "steps": len(cols.get("Time", []))}
+
+
+def _cell_size_inputs(simple, settings, rows, volume_src, t, made):
+    """Wetted area and face count, and fluid volume and cell count when a volume is there."""
+    total = rows.get("Total", {})
+    out = {"area": total.get("Area"), "faces": total.get("Faces")}
+    if volume_src is not None:
+        iv = simple.IntegrateVariables(Input=volume_src)
+        made.append(iv)
+        iv.DivideCellDataByVolume = 0
+        batch.update(iv, t)
+        data = iv.GetClientSideObject().GetOutputDataObject(0)
+        vol = data.GetCellData().GetArray("Volume")
+        out["volume"] = float(vol.GetValue(0)) if vol is not None and vol.GetNumberOfTuples() else None
+        out["cells"] = volume_src.GetDataInformation().GetNumberOfCells()
+    return out
+
+
+# ---------------------------------------------------------------------------
+# Several cases: index, summary, convergence
+# ---------------------------------------------------------------------------
+
+SUMMARY_COLUMNS = ["Faces", "Area", "Force", "Moment", "Drag", "Side Force", "Lift", "Rolling Moment",
+                   "Pitching Moment", "Yawing Moment", "Drag Coefficient", "Side Force Coefficient",
+                   "Lift Coefficient", "Rolling Moment Coefficient", "Pitching Moment Coefficient",
+                   "Yawing Moment Coefficient"]
+
+
+def _summary_csv(results):
+    import csv
+    import io
+    units = {}
+    present = []
+    for r in results:
+        total = r.rows.get("Total", {})
+        for c in SUMMARY_COLUMNS:
+            if c in total and c not in present:
+                present.append(c)
+                units[c] = r.units.get(c, batch.UNITS.get(c, ""))
+    width = {c: 3 if any(isinstance(r.rows.get("Total", {}).get(c), tuple) for r in results) else 1
+             for c in present}
+    out = io.StringIO()
+    w = csv.writer(out, lineterminator="\n")
+    header = ["Case", "Status", "File", "Report Time [s]"]
+    for c in present:
+        header += (["%s %s [%s]" % (c, a, units[c]) for a in "XYZ"] if width[c] == 3
+                   else ["%s [%s]" % (c, units[c])])
+    w.writerow(header + ["Error"])
+    for r in results:
+        total = r.rows.get("Total", {})
+        rt = r.record.get("case", {}).get("report_time") if r.record else None
+        line = [r.name, r.status, r.path, outputs.fmt(rt) if rt is not None else ""]
+        for c in present:
+            v = total.get(c)
+            if v is None:
+                line += [""] * width[c]
+            else:
+                line += [outputs.fmt(x) for x in v] if isinstance(v, tuple) \
+                    else [outputs.fmt(v, c in outputs.COUNTS)]
+        w.writerow(line + [r.error])
+    return out.getvalue()
+
+
+def _write_index(settings, results, study_result, out_dir):
+    outputs.write_atomic(os.path.join(out_dir, "summary.csv"), _summary_csv(results))
+    outputs.write_atomic(os.path.join(out_dir, "index.html"),
+                         htmlreport.index_page(settings["output.title"] or "Wall loads", results,
+                                               study_result, CAUTION, version()))
+
+
+def _convergence(settings, results, out_dir):
+    """Observed order, Richardson extrapolation and GCI of every total load and
+    coefficient from the fine, medium and coarse cases."""
+    if any(r.status != "done" for r in results):
+        _err("mesh convergence needs all three cases; %s failed"
+             % ", ".join(r.name for r in results if r.status != "done"))
+        return None
+    mode = settings["convergence.cell_size"]
+    have_volume = all(r.cell_size.get("volume") for r in results)
+    if mode == "volume" and not have_volume:
+        _err("convergence.cell_size = 'volume' but the cases hold no volume")
+        return None
+    use_volume = mode == "volume" or (mode == "auto" and have_volume)
+    sizes = []
+    for r in results:
+        cs = r.cell_size
+        if use_volume:
+            sizes.append(convergence.cell_size(cs["volume"], cs["cells"], 3))
+        else:
+            sizes.append(convergence.cell_size(cs["area"], cs["faces"], 2))
+    if not sizes[0] < sizes[1] < sizes[2]:
+        _err("the cases are not ordered FINE MEDIUM COARSE: representative cell sizes %s"
+             % ", ".join("%s %.4g m" % (r.name, h) for r, h in zip(results, sizes)))
+        return None
+    values, units = {}, {}
+    skip = {"Faces", "Skipped Faces", "Region Id", "Area", "Line Of Action Point", "Residual Couple"}
+    total = results[0].rows["Total"]
+    for col, v in total.items():
+        if col in skip:
+            continue
+        per_case = [r.rows["Total"].get(col) for r in results]
+        if any(x is None for x in per_case):
+            continue
+        if isinstance(v, tuple):
+            for k, axis in enumerate("XYZ"[:len(v)]):
+                values["%s %s" % (col, axis)] = [x[k] for x in per_case]
+                units["%s %s" % (col, axis)] = results[0].units.get(col, "")
+        else:
+            values[col] = per_case
+            units[col] = results[0].units.get(col, "")
+    study = convergence.study(values, sizes, units, settings["convergence.safety_factor"])
+    record = {"method": "Celik et al. 2008, J. Fluids Eng. 130(7):078001; factor of safety %g (Roache 1998)"
+                        % settings["convergence.safety_factor"],
+              "cell_size": "volume" if use_volume else "area",
+              "cases": [{"name": r.name, "file": r.path, "h": h} for r, h in zip(results, sizes)],
+              "quantities": study}
+    import csv
+    import io
+    text = io.StringIO()
+    w = csv.writer(text, lineterminator="\n")
+    w.writerow(["Quantity", "Unit", "Fine", "Medium", "Coarse", "h1 [m]", "h2 [m]", "h3 [m]", "r21", "r32",
+                "Observed Order", "Extrapolated", "Approximate Relative Error", "Extrapolated Relative Error",
+                "GCI Fine", "GCI Fine Absolute", "Behaviour", "Note"])
+    for q, res in study.items():
+        w.writerow([q, res["unit"]] + [outputs.fmt(x) for x in res["phi"]] + [outputs.fmt(x) for x in res["h"]]
+                   + [outputs.fmt(res[k]) for k in ("r21", "r32", "order", "phi_ext", "e_a", "e_ext", "gci",
+                                                    "gci_abs")] + [res["behaviour"], res["note"]])
+    outputs.write_atomic(os.path.join(out_dir, "convergence.csv"), text.getvalue())
+    outputs.write_atomic(os.path.join(out_dir, "convergence.json"), outputs.json_text(record))
+    sys.stderr.write("wallloads-report: mesh convergence (%s cell size): h = %s m\n"
+                     % (record["cell_size"], ", ".join("%.4g" % h for h in sizes)))
+    for q in ("Drag", "Lift", "Force Z"):
+        if q in study and math.isfinite(study[q]["order"]):
+            sys.stderr.write("  %s: order %.3f, extrapolated %.6g %s, GCI %.3g %% (%s)\n" % (
+                q, study[q]["order"], study[q]["phi_ext"], study[q]["unit"], 100 * study[q]["gci"],
+                study[q]["behaviour"]))
+    return record

@@ -24,8 +24,11 @@ EXODUS_EXTENSIONS = (".exo", ".e", ".ex2", ".exii", ".g", ".gen")
 XML_COMPOSITES = (".vtm", ".vtmb", ".vtpc", ".pvd")
 
 
-def _all(values):
-    return [v for v in values] if values else []
+def _all(proxy, name):
+    """Every entry a reader offers for a selection property."""
+    prop = proxy.GetProperty(name)
+    available = getattr(prop, "Available", None)
+    return list(available) if available else []
 
 
 def open_case(simple, path):
@@ -44,19 +47,16 @@ def open_case(simple, path):
         reader.UpdatePipelineInformation()
         reader.LoadPatches = 1        # boundary patches as their own blocks: the walls
         reader.LoadMesh = 1
-        reader.Bases = _all(reader.GetProperty("BaseInfo")[::2])
-        reader.PointArrayStatus = _all(reader.GetProperty("PointArrayInfo")[::2])
-        reader.CellArrayStatus = _all(reader.GetProperty("CellArrayInfo")[::2])
-        reader.FaceArrayStatus = _all(reader.GetProperty("FaceArrayInfo")[::2])
+        for name in ("Bases", "PointArrayStatus", "CellArrayStatus", "FaceArrayStatus"):
+            setattr(reader, name, _all(reader, name))
         return reader, "CGNS (CGNSSeriesReader, patches loaded)"
     if ext in EXODUS_EXTENSIONS:
         reader = simple.ExodusIIReader(FileName=[path])
         reader.UpdatePipelineInformation()
-        reader.ElementBlocks = _all(reader.GetProperty("ElementBlocksInfo")[::2])
-        reader.SideSetArrayStatus = _all(reader.GetProperty("SideSetArrayInfo")[::2])  # walls
-        reader.PointVariables = _all(reader.GetProperty("PointVariablesInfo")[::2])
-        reader.ElementVariables = _all(reader.GetProperty("ElementVariablesInfo")[::2])
-        reader.SideSetResultArrayStatus = _all(reader.GetProperty("SideSetResultArrayInfo")[::2])
+        # Element blocks (the volume), side sets (the walls) and every variable.
+        for name in ("ElementBlocks", "SideSetArrayStatus", "PointVariables", "ElementVariables",
+                     "SideSetResultArrayStatus"):
+            setattr(reader, name, _all(reader, name))
         return reader, "Exodus II (ExodusIIReader, side sets loaded)"
     try:
         reader = simple.OpenDataFile(path)
@@ -208,7 +208,7 @@ def blocks_of(simple, reader, time):
     h = info.GetHierarchy()
     for node in [0] + list(h.GetChildNodes(0, True)):
         ids = list(h.GetDataSetIndices(node, False))
-        if not ids:
+        if not ids or h.GetNumberOfChildren(node) > 0:
             continue
         labels, n = [], node
         while n > 0:

@@ -137,6 +137,9 @@ OPTIONS = [
     Option("shear.velocity", "str", "auto", "velocity array of the volume (m/s) for shear.source = "
            "'volume'; 'auto': the 3-component cell array whose name contains 'vel', else the only one",
            flag="--velocity", metavar="ARRAY"),
+    Option("shear.wall_velocity", "str", "", "velocity of moving walls (an array on the walls, m/s) "
+           "for shear.source = 'volume'; empty: the walls are at rest", flag="--wall-velocity",
+           metavar="ARRAY"),
     Option("shear.method", "choice", "near-wall-difference", "reconstruction from the volume: "
            "'near-wall-difference' (first order), 'gradient-tensor', 'wall-fit' (second order), "
            "'wall-law' (Spalding)",

@@ -324,7 +324,8 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
                         "array": shear_arr[1] if shear_arr else None,
                         "gradient": gradient[1] if gradient else None,
                         "velocity": velocity[1] if velocity else None,
-                        "method": s["shear.method"] if source == "volume" else None}
+                        "method": s["shear.method"] if source == "volume" else None,
+                        "wall_velocity": s["shear.wall_velocity"] or None}
     orientation = s["walls.orientation"]
     if orientation == "auto":
         orientation = "wall-normal-array" if source == "volume" else "into-wall"
@@ -341,6 +342,9 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
             ("fluid.turbulent_viscosity_array", "turbulent viscosity", visc_arrays, visc_where)):
         if s[key]:
             extra[key] = cases.find_array(arrays, s[key], 1, what, where)
+    if source == "volume" and s["shear.wall_velocity"]:
+        extra["shear.wall_velocity"] = cases.find_array(wall_arrays, s["shear.wall_velocity"], 3,
+                                                        "wall velocity")
     if s["walls.region_array"]:
         extra["walls.region_array"] = cases.find_array(wall_arrays, s["walls.region_array"], 1,
                                                        "region")
@@ -356,6 +360,8 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
     if source == "volume":
         sp = simple.ShearProjection(Input=volume_src, Walls=wall_src)
         made.append(sp)
+        _no_arrays(sp, ("WallVelocity", "VelocityGradient", "ViscosityArray", "TurbulentViscosityArray",
+                        "DensityArray"))
         sp.Velocity = list(velocity)
         sp.Method = METHOD[s["shear.method"]]
         sp.Viscosity = s["fluid.viscosity"]
@@ -365,9 +371,13 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
             sp.ViscosityArray = list(extra["fluid.viscosity_array"])
         if "fluid.turbulent_viscosity_array" in extra:
             sp.TurbulentViscosityArray = list(extra["fluid.turbulent_viscosity_array"])
+        if "shear.wall_velocity" in extra:
+            sp.WallVelocity = list(extra["shear.wall_velocity"])
         surface_in = sp
     wt = simple.WallTraction(Input=surface_in)
     made.append(wt)
+    _no_arrays(wt, ("DensityArray", "ViscosityArray", "TurbulentViscosityArray", "WallShearStress",
+                    "VelocityGradient"))
     wt.Pressure = list(pressure) if pressure else ["POINTS", "None"]
     wt.PressureKind = KIND[s["pressure.kind"]]
     wt.ReferencePressure = s["pressure.reference"]
@@ -401,6 +411,7 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
 
     li = simple.LoadIntegration(Input=wt)
     made.append(li)
+    _no_arrays(li, ("RegionArray",))
     if "walls.region_array" in extra:
         li.RegionArray = list(extra["walls.region_array"])
     li.MomentCentre = list(s["axes.moment_centre"])
@@ -510,6 +521,14 @@ def _unique(items):
 
 def _vec(v):
     return "(%s)" % ", ".join("%.3g" % (x + 0.0) for x in v)
+
+
+def _no_arrays(proxy, names):
+    """Optional array pickers to None: ParaView's domains preselect an array
+    when the input has one, and only what the configuration names may be used."""
+    for name in names:
+        if proxy.GetProperty(name) is not None:
+            setattr(proxy, name, ["POINTS", "None"])
 
 
 def _distribution(simple, settings, wt, t, drag, lift, made, stage):

@@ -218,8 +218,11 @@ def blocks_of(simple, reader, time):
         name = labels[-1] if labels else h.GetAttributeOrDefault(0, "label", "root")
         sub = probe.SMProxy.GetSubsetDataInformation(0, h.GetNodePath(node), "Hierarchy")
         cells = sub.GetNumberOfCells() if sub is not None else 0
-        for fid in ids:
-            blocks.append(Block(name, "/".join(labels), h.GetNodePath(node), dims.get(fid, -1), cells))
+        # A partitioned dataset (in a .vtpc) is one dataset id whose partitions
+        # are the leaves that follow it in flat order.
+        parts = int(h.GetAttributeOrDefault(node, "number_of_partitions", 0))
+        dim = max([dims.get(fid + k, -1) for fid in ids for k in range(parts + 1)] or [-1])
+        blocks.append(Block(name, "/".join(labels), h.GetNodePath(node), dim, cells))
     simple.Delete(probe)
     return blocks
 

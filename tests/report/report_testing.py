@@ -1,0 +1,123 @@
+"""Helpers of the report tests: run the `wallloads-report` command as a user
+does (a subprocess), read its CSV and JSON back, compare numbers.
+
+Environment (set by tests/report/CMakeLists.txt): WALLLOADS_REPORT (the
+launcher), WALLLOADS_SOURCE_DIR, WALLLOADS_TEST_OUTPUT, PYTHONPATH with
+tests/python (the scene library).
+"""
+import csv
+import json
+import math
+import os
+import shutil
+import subprocess
+import sys
+
+REPORT = os.environ.get("WALLLOADS_REPORT", "wallloads-report")
+SOURCE = os.environ.get("WALLLOADS_SOURCE_DIR", os.path.join(os.path.dirname(__file__), "..", ".."))
+OUT = os.environ.get("WALLLOADS_TEST_OUTPUT", "/tmp/wallloads-test-output")
+
+
+def workdir(name):
+    """A fresh folder for one test's files."""
+    d = os.path.join(OUT, "report", name)
+    shutil.rmtree(d, ignore_errors=True)
+    os.makedirs(d)
+    return d
+
+
+def run(args, env=None, mpi=0, timeout=600):
+    """Run the command; returns (exit code, stdout, stderr) and echoes stderr."""
+    cmd = [REPORT] + [str(a) for a in args]
+    if mpi:
+        cmd = ["mpirun", "-np", str(mpi), "--oversubscribe"] + cmd
+    full_env = dict(os.environ)
+    full_env.update(env or {})
+    proc = subprocess.run(cmd, capture_output=True, text=True, env=full_env, timeout=timeout)
+    sys.stdout.write("$ %s\n  -> exit %d\n" % (" ".join(cmd), proc.returncode))
+    for line in proc.stderr.splitlines():
+        if line.startswith("[") or line.startswith("wallloads-report"):
+            sys.stdout.write("  | %s\n" % line)
+    sys.stdout.flush()
+    return proc.returncode, proc.stdout, proc.stderr
+
+
+def read_csv(path):
+    """(header, rows as lists) of a CSV file."""
+    with open(path, newline="") as handle:
+        rows = list(csv.reader(handle))
+    return rows[0], rows[1:]
+
+
+def csv_table(path, key=0):
+    """{first column: {header: value as float when it parses}}."""
+    header, rows = read_csv(path)
+    out = {}
+    for r in rows:
+        out[r[key]] = {h: _num(v) for h, v in zip(header, r)}
+    return out
+
+
+def _num(v):
+    try:
+        return float(v)
+    except ValueError:
+        return v
+
+
+def read_json(path):
+    with open(path) as handle:
+        return json.load(handle)
+
+
+def expect(label, condition, detail=""):
+    print("%-72s %s %s" % (label, "ok" if condition else "FAILED", detail))
+    sys.stdout.flush()
+    assert condition, "%s: %s" % (label, detail)
+
+
+def close(label, got, expected, rtol=0.0, atol=0.0, source=""):
+    err = abs(got - expected)
+    ok = math.isfinite(got) and err <= atol + rtol * abs(expected)
+    print("%-60s got %.12g expected %.12g |err| %.2e (tol %.0e rel, %.0e abs)%s %s" % (
+        label, got, expected, err, rtol, atol, (" [" + source + "]") if source else "", "ok" if ok else "FAILED"))
+    sys.stdout.flush()
+    assert ok, "%s: %r vs %r" % (label, got, expected)
+
+
+def same_numbers(a, b, rtol=1e-12, path="", skip=("created",)):
+    """Compare two JSON-like values: numbers to rtol (relative to the larger,
+    with an absolute floor of rtol times 1e-300), everything else equal.
+    Returns the list of differences."""
+    diffs = []
+    if isinstance(a, dict) and isinstance(b, dict):
+        for k in sorted(set(a) | set(b)):
+            if k in skip:
+                continue
+            if k not in a or k not in b:
+                diffs.append("%s/%s only in one" % (path, k))
+            else:
+                diffs += same_numbers(a[k], b[k], rtol, "%s/%s" % (path, k), skip)
+    elif isinstance(a, list) and isinstance(b, list):
+        if len(a) != len(b):
+            diffs.append("%s: lengths %d and %d" % (path, len(a), len(b)))
+        else:
+            for i, (x, y) in enumerate(zip(a, b)):
+                diffs += same_numbers(x, y, rtol, "%s[%d]" % (path, i), skip)
+    elif isinstance(a, (int, float)) and isinstance(b, (int, float)) and not isinstance(a, bool):
+        if not (math.isnan(a) and math.isnan(b)) and abs(a - b) > rtol * max(abs(a), abs(b)):
+            diffs.append("%s: %r != %r" % (path, a, b))
+    elif a != b:
+        diffs.append("%s: %r != %r" % (path, a, b))
+    return diffs
+
+
+def csv_numbers(path):
+    """The CSV as a list of rows with numbers parsed (for same_numbers)."""
+    header, rows = read_csv(path)
+    return [header] + [[_num(v) for v in r] for r in rows]
+
+
+def done(name):
+    print("%s: all checks passed" % name)
+    sys.stdout.flush()

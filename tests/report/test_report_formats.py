@@ -38,7 +38,7 @@ files = {
     "sidesets": F.write_exodus(os.path.join(W, "sidesets.exo"), case, times=times, speeds=speeds),
 }
 par = case["params"]
-P_REF = 1.0e5
+P_REF = 0.99e5
 config = os.path.join(W, "sweep.toml")
 with open(config, "w") as handle:
     handle.write("""

@@ -60,8 +60,11 @@ def open_case(simple, path):
         return reader, "Exodus II (ExodusIIReader, side sets loaded)"
     try:
         reader = simple.OpenDataFile(path)
-    except Exception as exc:  # ParaView raises on some unreadable files
-        raise CaseError("case file %s cannot be opened: %s" % (path, exc)) from None
+    except Exception as exc:  # ParaView raises when no reader takes the file
+        if "No reader found" in str(exc):
+            reader = None
+        else:
+            raise CaseError("case file %s cannot be opened: %s" % (path, exc)) from None
     if reader is None:
         raise CaseError("case file %s: no ParaView reader for files ending in '%s'" % (path, ext or path))
     return reader, "%s (%s)" % (_format_name(ext), reader.GetXMLName())

@@ -225,10 +225,13 @@ def _select_times(settings, times):
 
 def _run_case(simple, settings, path, name, stage, progress, result, made, study):
     progress("reading %s" % path)
-    files, checksum = cases.case_files(path)
     with batch.watch() as w:
         reader, fmt = cases.open_case(simple, path)
     made.append(reader)
+    try:
+        files, checksum = cases.case_files(path)
+    except OSError as exc:
+        raise cases.CaseError("case file %s cannot be read: %s" % (path, exc.strerror or exc)) from None
     if w.errors:
         raise cases.CaseError("case file %s cannot be read: %s" % (path, w.message()))
     times = _times(reader)

@@ -1,0 +1,627 @@
+"""Fuzz driver: random surfaces and volumes through the WallLoads filters.
+
+    python3 tests/fuzz/fuzz_filters.py --seeds 0:2000        # a bounded run (CTest)
+    python3 tests/fuzz/fuzz_filters.py --seeds 0:200000 --progress 5000   # a long run
+
+Needs the wrapped filter classes on PYTHONPATH (build/python) and runs in a
+plain python3 (no ParaView), so that a sanitizer build can preload its runtime.
+Each seed makes one case: a random input (well formed or hostile: random cell
+kinds, NaN/Inf and extreme coordinates, ids past the last point, arrays of the
+wrong kind, width or length, string arrays, odd ghost arrays, empty and nested
+blocks, image blocks) and random settings, through Wall Traction -> Load
+Integration, or Shear Projection (-> Wall Traction -> Load Integration), or
+Load Integration on input that did not come from Wall Traction. After every
+filter it checks:
+
+- no crash and no hang (a watchdog ends the run with the stack after 60 s);
+- the input is unchanged (a digest of every point, cell and array);
+- a failed execution carries an error message; a successful one has every
+  per-face array with one tuple per cell;
+- Wall Traction: the faces carrying NaN are exactly the counted skipped faces;
+- Load Integration: totals finite, or a warning was given;
+- Sequential and STDThread backends give the same output to 1e-12;
+- clean cases: per-face forces and totals equal an independent numpy
+  computation (fuzz_oracle.py) to 1e-9 of their scale.
+
+A failed check prints the seed and exits 1; `--seed N` replays one case.
+"""
+import argparse
+import faulthandler
+import hashlib
+import os
+import sys
+import time
+
+import numpy as np
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+import fuzz_inputs as I  # noqa: E402
+import fuzz_oracle as O  # noqa: E402
+
+from vtkmodules.util.misc import calldata_type  # noqa: E402
+from vtkmodules.util.numpy_support import vtk_to_numpy  # noqa: E402
+from vtkmodules.util.vtkConstants import VTK_STRING  # noqa: E402
+from vtkmodules.vtkCommonCore import (vtkDataArray, vtkOutputWindow, vtkSMPTools,  # noqa: E402
+                                      vtkStringArray, vtkStringOutputWindow)
+from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkDataObjectTree,  # noqa: E402
+                                           vtkDataSet, vtkPointSet, vtkPolyData,
+                                           vtkRectilinearGrid, vtkUnstructuredGrid)
+from vtkmodules.vtkCommonExecutionModel import vtkTrivialProducer  # noqa: E402
+from wallloads.WallLoadsFilters import (vtkLoadIntegration, vtkShearProjection,  # noqa: E402
+                                        vtkWallTraction)
+
+RTOL_BACKENDS = 1e-12
+RTOL_ORACLE = 1e-9
+
+
+class CheckFailed(Exception):
+    pass
+
+
+def check(cond, what):
+    if not cond:
+        raise CheckFailed(what)
+
+
+# --- digests of data objects ---------------------------------------------------------
+def leaves(obj):
+    """(path, dataset) for a dataset or every leaf of a composite."""
+    if obj is None:
+        return []
+    if isinstance(obj, vtkDataSet):
+        return [("", obj)]
+    out = []
+    if isinstance(obj, vtkDataObjectTree):
+        it = obj.NewTreeIterator()
+        it.VisitOnlyLeavesOn()
+        it.SkipEmptyNodesOn()
+        it.InitTraversal()
+        while not it.IsDoneWithTraversal():
+            ds = it.GetCurrentDataObject()
+            if isinstance(ds, vtkDataSet):
+                out.append((str(it.GetCurrentFlatIndex()), ds))
+            it.GoToNextItem()
+    return out
+
+
+def array_bytes(a):
+    if a is None:
+        return b"<none>"
+    if isinstance(a, vtkStringArray):
+        return "\x00".join(a.GetValue(i) for i in range(a.GetNumberOfValues())).encode()
+    if isinstance(a, vtkDataArray):
+        return (a.GetClassName() + str(a.GetNumberOfComponents())).encode() + \
+            vtk_to_numpy(a).tobytes() if a.GetNumberOfTuples() else b"<empty>"
+    return a.GetClassName().encode()
+
+
+def attrs_digest(h, attrs):
+    for i in range(attrs.GetNumberOfArrays()):
+        a = attrs.GetAbstractArray(i)
+        h.update(str(a.GetName()).encode())
+        h.update(array_bytes(a))
+
+
+def digest(obj):
+    """A digest of everything a filter must not modify."""
+    h = hashlib.sha256()
+    if obj is None:
+        return "none"
+    h.update(obj.GetClassName().encode())
+    attrs_digest(h, obj.GetFieldData())
+    for path, ds in leaves(obj):
+        h.update(path.encode() + ds.GetClassName().encode())
+        if isinstance(ds, vtkPointSet) and ds.GetPoints() is not None:
+            h.update(array_bytes(ds.GetPoints().GetData()))
+        if isinstance(ds, vtkPolyData):
+            for ca in (ds.GetVerts(), ds.GetLines(), ds.GetPolys(), ds.GetStrips()):
+                h.update(array_bytes(ca.GetOffsetsArray()) + array_bytes(ca.GetConnectivityArray()))
+        elif isinstance(ds, vtkUnstructuredGrid) and ds.GetCells() is not None:
+            h.update(array_bytes(ds.GetCellTypesArray()))
+            h.update(array_bytes(ds.GetCells().GetOffsetsArray()))
+            h.update(array_bytes(ds.GetCells().GetConnectivityArray()))
+        elif isinstance(ds, vtkRectilinearGrid):
+            for c in (ds.GetXCoordinates(), ds.GetYCoordinates(), ds.GetZCoordinates()):
+                h.update(array_bytes(c))
+        attrs_digest(h, ds.GetPointData())
+        attrs_digest(h, ds.GetCellData())
+        attrs_digest(h, ds.GetFieldData())
+    return h.hexdigest()
+
+
+def numeric_output(obj):
+    """{path/association/name: float array} of every numeric array of an output."""
+    out = {}
+    if obj is None:
+        return out
+    for i in range(obj.GetFieldData().GetNumberOfArrays()):
+        a = obj.GetFieldData().GetArray(i)
+        if a is not None:
+            out["field/" + str(a.GetName())] = vtk_to_numpy(a).astype(np.float64).ravel()
+    if hasattr(obj, "GetNumberOfColumns"):  # a table
+        for i in range(obj.GetNumberOfColumns()):
+            a = obj.GetColumn(i)
+            if isinstance(a, vtkDataArray):
+                out["table/" + str(a.GetName())] = vtk_to_numpy(a).astype(np.float64).ravel()
+        return out
+    for path, ds in leaves(obj):
+        for assoc, attrs in (("cell", ds.GetCellData()), ("point", ds.GetPointData())):
+            for i in range(attrs.GetNumberOfArrays()):
+                a = attrs.GetArray(i)
+                if a is not None and a.GetNumberOfTuples():
+                    out["%s/%s/%s" % (path, assoc, a.GetName())] = vtk_to_numpy(a).astype(np.float64).ravel()
+    return out
+
+
+def same_numbers(a, b):
+    if a.keys() != b.keys():
+        return "arrays differ: %s" % sorted(set(a) ^ set(b))
+    for k in a:
+        x, y = a[k], b[k]
+        if x.shape != y.shape:
+            return "%s: shapes %s vs %s" % (k, x.shape, y.shape)
+        fin = np.isfinite(x) & np.isfinite(y)
+        if not np.array_equal(np.isfinite(x), np.isfinite(y)) or \
+                not np.array_equal(np.isnan(x), np.isnan(y)) or \
+                not np.array_equal(x[~np.isfinite(x) & ~np.isnan(x)], y[~np.isfinite(y) & ~np.isnan(y)]):
+            return "%s: non-finite values differ" % k
+        if fin.any():
+            scale = np.abs(x[fin]).max()
+            if not np.allclose(x[fin], y[fin], rtol=RTOL_BACKENDS, atol=RTOL_BACKENDS * scale):
+                return "%s: differ by %.3g (scale %.3g)" % (k, np.abs(x[fin] - y[fin]).max(), scale)
+    return ""
+
+
+# --- running a filter with its messages captured ------------------------------------
+class Messages:
+    def __init__(self):
+        self.errors, self.warnings = [], []
+
+    def observe(self, obj):
+        @calldata_type(VTK_STRING)
+        def on_error(_o, _e, text):
+            self.errors.append(str(text))
+
+        @calldata_type(VTK_STRING)
+        def on_warning(_o, _e, text):
+            self.warnings.append(str(text))
+        obj.AddObserver("ErrorEvent", on_error)
+        obj.AddObserver("WarningEvent", on_warning)
+
+
+def execute(alg, inputs):
+    """Run `alg` on `inputs` (one data object per port); (ok, output(s), messages)."""
+    msgs = Messages()
+    msgs.observe(alg)
+    msgs.observe(alg.GetExecutive())
+    producers = []
+    for port, data in enumerate(inputs):
+        if data is None:
+            continue
+        tp = vtkTrivialProducer()
+        tp.SetOutput(data)
+        alg.SetInputConnection(port, tp.GetOutputPort())
+        producers.append(tp)
+    window = vtkStringOutputWindow()  # messages no observer caught (from other objects)
+    vtkOutputWindow.SetInstance(window)
+    ok = alg.GetExecutive().Update() == 1
+    text = window.GetOutput()
+    if text:
+        (msgs.errors if "ERROR" in text.upper() else msgs.warnings).append(text)
+    outputs = [alg.GetOutputDataObject(p) for p in range(alg.GetNumberOfOutputPorts())]
+    return ok, outputs, msgs
+
+
+def run_both_backends(make_alg, inputs):
+    """Execute under Sequential and STDThread; the outputs must agree."""
+    results = []
+    for backend in ("Sequential", "STDThread"):
+        vtkSMPTools.SetBackend(backend)
+        alg = make_alg()
+        ok, outs, msgs = execute(alg, inputs)
+        results.append((ok, outs, msgs, [numeric_output(o) for o in outs]))
+    (ok1, _, _, n1), (ok2, _, _, n2) = results
+    check(ok1 == ok2, "backends disagree on success: Sequential %s, STDThread %s" % (ok1, ok2))
+    if ok1:
+        for a, b in zip(n1, n2):
+            diff = same_numbers(a, b)
+            check(not diff, "Sequential vs STDThread: " + diff)
+    return results[1][:3]
+
+
+# --- settings ----------------------------------------------------------------------
+def available(ds_or_tree):
+    """{name: (on_points, components)} of numeric arrays on the first leaf that has them."""
+    out = {}
+    for _, ds in leaves(ds_or_tree):
+        for on_points, attrs in ((1, ds.GetPointData()), (0, ds.GetCellData())):
+            for i in range(attrs.GetNumberOfArrays()):
+                a = attrs.GetArray(i)
+                if a is not None and a.GetName() != "vtkGhostType":
+                    out.setdefault(a.GetName(), (on_points, a.GetNumberOfComponents()))
+    return out
+
+
+def wall_traction_settings(rng, data, clean):
+    have = available(data)
+    s = {"PressureKind": int(rng.integers(0, 2)), "ReferencePressure": float(rng.normal() * 1e5),
+         "Density": float(rng.uniform(0.5, 1500.0)), "ShearSource": int(rng.integers(0, 3)),
+         "WallShearStressKind": int(rng.integers(0, 2)), "Viscosity": float(rng.uniform(1e-5, 1.0)),
+         "ViscosityKind": int(rng.integers(0, 2)), "IncludeNormalViscousStress": int(rng.integers(0, 2)),
+         "Orientation": int(rng.integers(0, 2 if clean else 3)), "CheckOrientation": int(rng.integers(0, 2)),
+         "LoadDirection": list(rng.normal(size=3)), "ReferenceSpeed": float(pick_speed(rng)),
+         "PerFaceArrays": int(rng.integers(0, 2))}
+    roles = [("Pressure", "pressure", 0.9), ("DensityArray", "density", 0.3),
+             ("WallShearStress", "wall_shear", 1.0), ("VelocityGradient", "velocity_gradient", 1.0),
+             ("ViscosityArray", "viscosity", 0.3), ("TurbulentViscosityArray", "eddy_viscosity", 0.3)]
+    for prop, name, p in roles:
+        if clean:
+            if name in have and rng.random() < p:
+                s[prop] = (have[name][0], name)
+        elif rng.random() < p:
+            s[prop] = I.selection(rng, name, clean)
+    if clean:
+        need = {1: "WallShearStress", 2: "VelocityGradient"}.get(s["ShearSource"])
+        if need and need not in s:
+            s["ShearSource"] = 0
+    else:
+        for key in ("ReferencePressure", "Density", "Viscosity", "ReferenceSpeed"):
+            if rng.random() < 0.15:
+                s[key] = float(I.hostile_number(rng, s[key] or 1.0))
+        s["LoadDirection"] = I.hostile_vector(rng, s["LoadDirection"])
+    return s
+
+
+def pick_speed(rng):
+    return rng.choice([0.0, 1.0, 30.0])
+
+
+ARRAY_INDEX = {"Pressure": 0, "DensityArray": 1, "WallShearStress": 2, "VelocityGradient": 3,
+               "ViscosityArray": 4, "TurbulentViscosityArray": 5}
+
+
+def make_wall_traction(s):
+    wt = vtkWallTraction()
+    for key, value in s.items():
+        if key in ARRAY_INDEX:
+            wt.SetInputArrayToProcess(ARRAY_INDEX[key], 0, 0, value[0] if value[0] in (0, 1) else 1, value[1])
+        else:
+            getattr(wt, "Set" + key)(*value) if isinstance(value, list) else getattr(wt, "Set" + key)(value)
+    return wt
+
+
+def load_integration_settings(rng, data, clean):
+    s = {"MomentCentre": list(rng.normal(size=3)), "DragDirection": list(rng.normal(size=3)),
+         "LiftDirection": list(rng.normal(size=3)), "ReferenceDensity": float(rng.uniform(0.5, 1500)),
+         "ReferenceSpeed": float(pick_speed(rng)), "ReferenceArea": float(rng.uniform(0.1, 10)),
+         "ReferenceLength": float(rng.uniform(0.1, 10)), "ReferenceSpan": float(rng.uniform(0.1, 10))}
+    have = available(data)
+    if rng.random() < 0.4:
+        if clean and "zone" in have and have["zone"][0] == 0:
+            s["RegionArray"] = (0, "zone")
+        elif not clean:
+            s["RegionArray"] = I.selection(rng, "zone", clean)
+    if not clean:
+        for key in ("MomentCentre", "DragDirection", "LiftDirection"):
+            s[key] = I.hostile_vector(rng, s[key])
+        for key in ("ReferenceDensity", "ReferenceSpeed", "ReferenceArea", "ReferenceLength", "ReferenceSpan"):
+            if rng.random() < 0.1:
+                s[key] = float(I.hostile_number(rng, s[key] or 1.0))
+    return s
+
+
+def make_load_integration(s):
+    li = vtkLoadIntegration()
+    for key, value in s.items():
+        if key == "RegionArray":
+            li.SetInputArrayToProcess(0, 0, 0, 1, value[1])
+        elif isinstance(value, list):
+            getattr(li, "Set" + key)(*value)
+        else:
+            getattr(li, "Set" + key)(value)
+    return li
+
+
+def shear_projection_settings(rng, volume, clean):
+    have = available(volume)
+    s = {"Method": int(rng.integers(0, 4)), "Viscosity": float(rng.uniform(1e-5, 1.0)),
+         "ViscosityKind": int(rng.integers(0, 2)), "Density": float(rng.uniform(0.5, 1500)),
+         "WallLawKappa": 0.41, "WallLawB": 5.0}
+    for idx, name, p in ((0, "velocity", 1.0), (1, "wall_velocity", 0.2), (2, "velocity_gradient", 0.2),
+                         (3, "viscosity", 0.2), (4, "eddy_viscosity", 0.2), (5, "density", 0.2)):
+        if rng.random() < p:
+            if clean and name in have:
+                s["array%d" % idx] = (have[name][0], name)
+            elif not clean:
+                s["array%d" % idx] = I.selection(rng, name, clean)
+    if not clean:
+        for key in ("Viscosity", "Density", "WallLawKappa", "WallLawB"):
+            if rng.random() < 0.1:
+                s[key] = float(I.hostile_number(rng, s[key]))
+    return s
+
+
+def make_shear_projection(s):
+    sp = vtkShearProjection()
+    for key, value in s.items():
+        if key.startswith("array"):
+            idx = int(key[5:])
+            sp.SetInputArrayToProcess(idx, 1 if idx == 1 else 0, 0, value[0], value[1])
+        else:
+            getattr(sp, "Set" + key)(value)
+    return sp
+
+
+# --- checks after each filter -------------------------------------------------------
+def check_failure_reported(name, ok, msgs):
+    if not ok:
+        check(msgs.errors, "%s failed without an error message" % name)
+
+
+def check_lengths(name, out):
+    for path, ds in leaves(out):
+        for attrs, n in ((ds.GetCellData(), ds.GetNumberOfCells()), (ds.GetPointData(), ds.GetNumberOfPoints())):
+            for i in range(attrs.GetNumberOfArrays()):
+                a = attrs.GetAbstractArray(i)
+                if a.GetName() in ("vtkGhostType",):
+                    continue
+                # arrays the filter made must fit; inputs' own arrays pass through as they were
+                if a.GetName() in MADE_ARRAYS:
+                    check(a.GetNumberOfTuples() == n, "%s: '%s' on leaf %s has %d tuples for %d elements" % (
+                        name, a.GetName(), path, a.GetNumberOfTuples(), n))
+
+
+MADE_ARRAYS = {"Wall Normal", "Face Area", "Pressure Traction", "Viscous Traction", "Traction",
+               "Pressure Force", "Viscous Force", "Force", "Normal Viscous Stress", "Pressure Coefficient",
+               "Skin Friction Coefficient", "Directional Traction", "Wall Shear Stress", "Wall Distance",
+               "Friction Velocity", "y+", "Near-Wall Regime"}
+
+
+def field_value(obj, name):
+    a = obj.GetFieldData().GetArray(name)
+    return None if a is None else vtk_to_numpy(a).astype(np.float64)
+
+
+def check_wall_traction(out, msgs):
+    check_lengths("Wall Traction", out)
+    skipped = sum(float(field_value(out, k)[0]) for k in
+                  ("Skipped Non-Surface Cells", "Skipped Degenerate Faces", "Skipped Non-Finite Faces")
+                  if field_value(out, k) is not None)
+    nan_faces = 0
+    for _, ds in leaves(out):
+        area = ds.GetCellData().GetArray("Face Area")
+        if area is None:
+            continue
+        a = vtk_to_numpy(area)
+        g = ds.GetCellData().GetArray("vtkGhostType")
+        counted = np.ones(len(a), bool) if g is None else (vtk_to_numpy(g) & 33) == 0
+        nan_faces += int(np.count_nonzero(np.isnan(a) & counted))
+    check(nan_faces == skipped, "Wall Traction: %d counted faces carry NaN but %d are counted skipped"
+          % (nan_faces, skipped))
+    wetted = field_value(out, "Wetted Area")
+    check(wetted is not None, "Wall Traction output has no 'Wetted Area'")
+    check(np.isfinite(wetted).all() or msgs.warnings, "Wetted Area %s without a warning" % wetted)
+
+
+TOTAL_NAMES = ("Area", "Pressure Force", "Viscous Force", "Force", "Moment")
+
+
+def check_load_integration(outs, msgs):
+    out, table = outs
+    for name in TOTAL_NAMES:
+        v = field_value(out, name)
+        check(v is not None, "Load Integration: no field '%s'" % name)
+        check(np.isfinite(v).all() or msgs.warnings, "Load Integration: '%s' = %s without a warning" % (name, v))
+    regions = table.GetColumnByName("Region")
+    check(regions is not None and regions.GetNumberOfValues() >= 1
+          and regions.GetValue(regions.GetNumberOfValues() - 1) == "Total", "table has no Total row")
+
+
+def check_against_oracle(data, ws, ls, wt_out, li_out):
+    """Clean case: per-face forces and totals against fuzz_oracle."""
+    rows_all = []
+    for (path, ds_in), (_, ds_out) in zip(leaves(data), leaves(wt_out)):
+        if ds_in.GetNumberOfCells() == 0:
+            continue
+        rows = O.wall_traction(ds_in, ws)
+        rows_all += rows
+        area = vtk_to_numpy(ds_out.GetCellData().GetArray("Face Area"))
+        fp = vtk_to_numpy(ds_out.GetCellData().GetArray("Pressure Force"))
+        fv = vtk_to_numpy(ds_out.GetCellData().GetArray("Viscous Force"))
+        ref_a = np.array([r[0] for r in rows])
+        ref_p = np.array([r[1] for r in rows])
+        ref_v = np.array([r[2] for r in rows])
+        for label, got, ref in (("Face Area", area, ref_a), ("Pressure Force", fp, ref_p),
+                                ("Viscous Force", fv, ref_v)):
+            scale = np.abs(ref).max() if ref.size else 0.0
+            check(np.allclose(got, ref, rtol=RTOL_ORACLE, atol=RTOL_ORACLE * scale + 1e-300),
+                  "oracle: %s on leaf %s off by %.3g (scale %.3g)" % (label, path, np.abs(got - ref).max(), scale))
+    r0 = np.array(ls["MomentCentre"])
+    area, force, moment, scale, mscale = O.totals(rows_all, r0)
+    got_area = field_value(li_out, "Area")[0]
+    got_force = field_value(li_out, "Force")
+    got_moment = field_value(li_out, "Moment")
+    check(abs(got_area - area) <= RTOL_ORACLE * max(area, 1e-300), "oracle: Area %r vs %r" % (got_area, area))
+    check(np.all(np.abs(got_force - force) <= RTOL_ORACLE * scale + 1e-300),
+          "oracle: Force %s vs %s (scale %.3g)" % (got_force, force, scale))
+    check(np.all(np.abs(got_moment - moment) <= RTOL_ORACLE * mscale + 1e-300),
+          "oracle: Moment %s vs %s (scale %.3g)" % (got_moment, moment, mscale))
+
+
+# --- one case ------------------------------------------------------------------------
+def surface_input(rng, clean):
+    if rng.random() < 0.5:
+        return I.random_surface(rng, clean)
+    return I.random_composite(rng, lambda: I.random_surface(rng, clean), clean)
+
+
+def volume_input(rng, clean):
+    if rng.random() < 0.6:
+        return I.random_volume(rng, clean)
+    return I.random_composite(rng, lambda: I.random_volume(rng, clean), clean)
+
+
+def run_surface_chain(rng, clean, stats):
+    data = surface_input(rng, clean)
+    before = digest(data)
+    ws = wall_traction_settings(rng, data, clean)
+    ok, outs, msgs = run_both_backends(lambda: make_wall_traction(ws), [data])
+    check(digest(data) == before, "Wall Traction modified its input")
+    check_failure_reported("Wall Traction", ok, msgs)
+    stats["wt_ok" if ok else "wt_fail"] += 1
+    if not ok:
+        return
+    check_wall_traction(outs[0], msgs)
+    wt_out = outs[0]
+    ls = load_integration_settings(rng, data, clean)
+    before_li = digest(wt_out)
+    ok2, outs2, msgs2 = run_both_backends(lambda: make_load_integration(ls), [wt_out])
+    check(digest(wt_out) == before_li, "Load Integration modified its input")
+    check_failure_reported("Load Integration", ok2, msgs2)
+    stats["li_ok" if ok2 else "li_fail"] += 1
+    if ok2:
+        check_load_integration(outs2, msgs2)
+        if clean and "RegionArray" not in ls:
+            check_against_oracle(data, ws, ls, wt_out, outs2[0])
+            stats["oracle"] += 1
+
+
+def run_raw_integration(rng, clean, stats):
+    data = surface_input(rng, False)
+    before = digest(data)
+    ls = load_integration_settings(rng, data, False)
+    ok, outs, msgs = run_both_backends(lambda: make_load_integration(ls), [data])
+    check(digest(data) == before, "Load Integration modified its input")
+    check_failure_reported("Load Integration", ok, msgs)
+    stats["li_raw_ok" if ok else "li_raw_fail"] += 1
+    if ok:
+        check_load_integration(outs, msgs)
+
+
+def run_volume_chain(rng, clean, stats):
+    volume = volume_input(rng, clean)
+    walls = None
+    if rng.random() < 0.4:
+        walls = surface_input(rng, clean)
+    before = (digest(volume), digest(walls))
+    ss = shear_projection_settings(rng, volume, clean)
+    ok, outs, msgs = run_both_backends(lambda: make_shear_projection(ss), [volume, walls])
+    check((digest(volume), digest(walls)) == before, "Shear Projection modified its inputs")
+    check_failure_reported("Shear Projection", ok, msgs)
+    stats["sp_ok" if ok else "sp_fail"] += 1
+    if not ok:
+        return
+    check_lengths("Shear Projection", outs[0])
+    for _, ds in leaves(outs[0]):
+        wss = ds.GetCellData().GetArray("Wall Shear Stress")
+        if wss is not None and np.isnan(vtk_to_numpy(wss)).any():
+            check(msgs.warnings, "Shear Projection: NaN wall shear stress without a warning")
+
+
+CHAINS = {"surface": run_surface_chain, "raw-integration": run_raw_integration, "volume": run_volume_chain}
+WEIGHTS = {"surface": 0.6, "raw-integration": 0.1, "volume": 0.3}
+
+
+def run_case(seed, chains, stats):
+    rng = np.random.default_rng(seed)
+    clean = rng.random() < 0.3
+    names = list(chains)
+    p = np.array([WEIGHTS[n] for n in names])
+    chain = names[int(rng.choice(len(names), p=p / p.sum()))]
+    stats["clean" if clean else "hostile"] += 1
+    CHAINS[chain](rng, clean, stats)
+
+
+def run_isolated(args, seeds):
+    """Run the seeds in child processes, so that a crash (or a sanitizer abort)
+    names its seed and the run goes on: each child records the seed it starts
+    in a trace file; after a crash the next child starts at the seed after it."""
+    import subprocess
+    import tempfile
+    trace = tempfile.NamedTemporaryFile(prefix="wallloads-fuzz-", suffix=".seed", delete=False).name
+    base = [sys.executable, os.path.abspath(__file__), "--chains", args.chains, "--keep-going",
+            "--hang-seconds", str(args.hang_seconds), "--trace", trace]
+    crashes, failed_checks, start, done = [], 0, time.time(), seeds.start
+    next_report = seeds.start + (args.progress or 0)
+    while done < seeds.stop:
+        with open(trace, "w"):
+            pass
+        r = subprocess.run(base + ["--seeds", "%d:%d" % (done, seeds.stop)], capture_output=True, text=True)
+        lines = [line for line in r.stdout.splitlines() if line.startswith("FUZZ FAILURE")]
+        failed_checks += len(lines)
+        for line in lines:
+            print(line, flush=True)
+        if r.returncode in (0, 1) and "fuzz:" in r.stdout:
+            done = seeds.stop
+        else:
+            with open(trace) as fh:
+                text = fh.read().strip()
+            seed = int(text) if text else done
+            tail = r.stderr.strip().splitlines() or ["(no output)"]
+            why = next((t for t in tail if "ERROR: AddressSanitizer" in t or "runtime error" in t
+                        or "Fatal Python error" in t), tail[-1])
+            crashes.append(seed)
+            print("FUZZ CRASH at seed %d (exit %d): %s" % (seed, r.returncode, why.strip()), flush=True)
+            print("replay: python3 %s --seed %d" % (sys.argv[0], seed), flush=True)
+            done = seed + 1
+        if args.progress and done >= next_report:
+            print("%d cases, %.0f s, %d crashes, %d failed checks" % (done - seeds.start, time.time() - start,
+                                                                       len(crashes), failed_checks), flush=True)
+            next_report = done + args.progress
+    os.unlink(trace)
+    print("fuzz (isolated): %d cases in %.1f s, %d crashes, %d failed checks" % (
+        len(seeds), time.time() - start, len(crashes), failed_checks))
+    return 1 if crashes or failed_checks else 0
+
+
+def main():
+    ap = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
+    ap.add_argument("--seeds", default="0:500", help="range A:B of seeds (B excluded)")
+    ap.add_argument("--seed", type=int, help="replay one seed, verbosely")
+    ap.add_argument("--chains", default=",".join(CHAINS), help="comma-separated: " + ", ".join(CHAINS))
+    ap.add_argument("--progress", type=int, default=0, help="print a line every N cases")
+    ap.add_argument("--keep-going", action="store_true", help="report every failing seed, not only the first")
+    ap.add_argument("--isolate", action="store_true",
+                    help="run in child processes: a crash names its seed and the run goes on")
+    ap.add_argument("--trace", help=argparse.SUPPRESS)  # file holding the seed being run
+    ap.add_argument("--hang-seconds", type=float, default=60.0, help="watchdog per case")
+    args = ap.parse_args()
+    faulthandler.enable()
+    chains = [c for c in args.chains.split(",") if c]
+    if args.seed is not None:
+        seeds = range(args.seed, args.seed + 1)
+    else:
+        a, b = (int(x) for x in args.seeds.split(":"))
+        seeds = range(a, b)
+    if args.isolate:
+        return run_isolated(args, seeds)
+    from collections import Counter
+    stats = Counter()
+    failures = []
+    start = time.time()
+    for k, seed in enumerate(seeds):
+        faulthandler.dump_traceback_later(args.hang_seconds, exit=True)
+        if args.seed is not None:
+            print("case %d" % seed, flush=True)
+        if args.trace:
+            with open(args.trace, "w") as fh:
+                fh.write("%d\n" % seed)
+        try:
+            run_case(seed, chains, stats)
+        except CheckFailed as exc:
+            faulthandler.cancel_dump_traceback_later()
+            failures.append((seed, str(exc)))
+            print("FUZZ FAILURE at seed %d: %s" % (seed, exc), flush=True)
+            print("replay: python3 %s --seed %d --chains %s" % (sys.argv[0], seed, args.chains), flush=True)
+            if not args.keep_going:
+                return 1
+        if args.progress and (k + 1) % args.progress == 0:
+            print("%d cases, %.0f s, %s" % (k + 1, time.time() - start, dict(stats)), flush=True)
+    faulthandler.cancel_dump_traceback_later()
+    print("fuzz: %d cases in %.1f s, %d failures; %s" % (len(seeds), time.time() - start, len(failures),
+                                                       dict(sorted(stats.items()))))
+    return 1 if failures else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

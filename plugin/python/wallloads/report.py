@@ -244,6 +244,10 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
     if not blocks or all(b.cells == 0 for b in blocks):
         raise cases.CaseError("case file %s holds no cells%s" % (
             path, (": " + w.message()) if w.errors else " (empty or unreadable)"))
+    if fmt.startswith("CGNS") and _ranks() > 1 and not any(b.dimension == 2 for b in blocks):
+        raise cases.CaseError("case file %s: ParaView 5.11's CGNS reader loads no boundary patches when it "
+                              "runs on more than one rank (here %d); report CGNS cases without mpirun, or "
+                              "give the walls as a surface file" % (path, _ranks()))
     walls, volumes, notes = cases.select_blocks(blocks, settings["walls.blocks"])
     composite = any(b.selector for b in blocks)
     if composite:
@@ -512,6 +516,12 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
     title = settings["output.title"] or name
     stage.write("report.html", htmlreport.case_page(title, record, rows, units, extras, images, stage.folder,
                                                     CAUTION))
+
+
+def _ranks():
+    from vtkmodules.vtkParallelCore import vtkMultiProcessController
+    controller = vtkMultiProcessController.GetGlobalController()
+    return controller.GetNumberOfProcesses() if controller is not None else 1
 
 
 def _unique(items):

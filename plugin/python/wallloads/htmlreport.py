@@ -15,6 +15,7 @@ h1{font-size:1.6em;margin-bottom:0.2em}h2{font-size:1.2em;margin-top:1.6em;borde
 .meta{color:#555;font-size:0.9em}
 .caution{background:#fff7e0;border-left:4px solid #e0a800;padding:8px 12px;margin:12px 0;font-size:0.92em}
 .warn{background:#fdecea;border-left:4px solid #c0392b;padding:6px 12px;margin:6px 0;font-size:0.92em}
+.note{background:#f3f5f8;border-left:4px solid #9aa5b1;padding:6px 12px;margin:6px 0;font-size:0.92em}
 table{border-collapse:collapse;margin:8px 0;font-size:0.86em}
 th,td{border:1px solid #d0d0d0;padding:3px 7px;text-align:right;white-space:nowrap}
 th{background:#f0f3f7;text-align:center}td.l,th.l{text-align:left}
@@ -79,10 +80,10 @@ def _load_tables(rows, units):
     coefficients and line of action."""
     first = next(iter(rows.values()))
     groups = [
-        ("Forces", ["Faces", "Area", "Pressure Force", "Viscous Force", "Force"]),
+        ("In the load axes", ["Faces", "Area", "Drag", "Side Force", "Lift", "Rolling Moment",
+                              "Pitching Moment", "Yawing Moment"]),
+        ("Forces", ["Pressure Force", "Viscous Force", "Force"]),
         ("Moments about the moment centre", ["Pressure Moment", "Viscous Moment", "Moment"]),
-        ("In the load axes", ["Drag", "Side Force", "Lift", "Rolling Moment", "Pitching Moment",
-                              "Yawing Moment"]),
         ("Coefficients", ["Drag Coefficient", "Side Force Coefficient", "Lift Coefficient",
                           "Rolling Moment Coefficient", "Pitching Moment Coefficient",
                           "Yawing Moment Coefficient"]),
@@ -92,7 +93,7 @@ def _load_tables(rows, units):
     out = []
     for title, cols in groups:
         cols = [c for c in cols if c in first]
-        if not cols:
+        if not cols or (title != "In the load axes" and cols == [c for c in cols if c in shown]):
             continue
         shown.update(cols)
         header, body = ["Region"], []
@@ -129,9 +130,10 @@ def _settings_table(record):
     items = [
         ("Walls", ", ".join(ch.get("walls", []))),
         ("Volume", ", ".join(ch.get("volume", [])) or "none"),
-        ("Pressure", "%s (%s data, %s; chosen: %s); datum p_ref = %g Pa" % (
+        ("Pressure", "%s (%s data, %s%s); datum p_ref = %g Pa" % (
             p.get("array") or "none", "cell" if p.get("association") == "CELLS" else "point",
-            c["pressure"]["kind"], p.get("how"), c["pressure"]["reference"])),
+            c["pressure"]["kind"], ", found automatically" if p.get("how") == "auto" else "",
+            c["pressure"]["reference"])),
         ("Wall shear stress", {"array": "array %s (%s)" % (sh.get("array"), c["shear"]["kind"]),
                                "gradient": "from the velocity gradient %s" % sh.get("gradient"),
                                "volume": "reconstructed from the volume velocity %s (%s)"
@@ -168,16 +170,22 @@ def case_page(title, record, rows, units, extras, images, folder, caution):
              "<div class=\"caution\">%s</div>" % _e(caution)]
     for w in record.get("warnings", []):
         parts.append("<div class=\"warn\">%s</div>" % _e(w))
+    for n in record.get("left_out", []):
+        parts.append("<div class=\"note\">%s</div>" % _e(n))
     parts.append("<h2>Settings used</h2>" + _settings_table(record))
+    tables = _load_tables(rows, units)
+    first, _, rest = tables.partition("\n")
     parts.append("<h2>Loads per region</h2><p class=\"meta\">Forces exerted by the fluid on the walls; "
                  "SI units. The same numbers, at full precision, are in <code>loads.csv</code> and "
                  "<code>loads.json</code>.</p>")
-    parts.append(_load_tables(rows, units))
+    parts.append(first)
     if images:
         parts.append("<h2>Pictures</h2>")
         for name, caption in images:
             parts.append("<figure><img src=\"%s\" alt=\"%s\" data-file=\"%s\"><figcaption>%s</figcaption></figure>"
                          % (_png(folder, name), _e(caption), _e(name), _e(caption)))
+    if rest:
+        parts.append("<h2>All loads</h2>" + rest)
     hist = extras.get("history")
     if hist:
         parts.append("<h2>History and statistics</h2><p class=\"meta\">%d time steps; the full history is in "

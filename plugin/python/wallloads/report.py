@@ -434,6 +434,7 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
     with batch.watch() as w:
         batch.update(li, t)
     warnings = notes + _unique(w.warnings)
+    left_out = []   # outputs this run does not make, and why
     table = batch._table_of(li, t)
     rows = batch.table_rows(table)
     if not rows:
@@ -447,13 +448,13 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
         extras["distribution"] = _distribution(simple, settings, wt, t, drag, lift, made, stage)
     else:
         extras["distribution"] = None
-        warnings.append("no distribution: this build has no Load Distribution filter")
+        left_out.append("no distribution: this build has no Load Distribution filter")
     if len(selected) > 1:
         if hasattr(simple, "LoadHistory"):
             extras["history"] = _history(simple, settings, li, selected, made, stage, progress)
         else:
             extras["history"] = None
-            warnings.append("no history of the %d time steps: this build has no Load History filter"
+            left_out.append("no history of the %d time steps: this build has no Load History filter"
                             % len(selected))
     else:
         extras["history"] = None
@@ -481,7 +482,9 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
             images.append(("distribution.png", "Distribution of %s along %s"
                            % (", ".join(dist["series"]), _vec(dist["axis"]))))
     elif want == "auto":
-        warnings.append("no pictures: no X display (DISPLAY is unset); run under Xvfb for them")
+        left_out.append("no pictures: no X display (DISPLAY is unset); run under Xvfb for them")
+    elif want == "no":
+        left_out.append("no pictures: output.images = 'no'")
 
     if study:
         result.cell_size = _cell_size_inputs(simple, settings, rows, volume_src, t, made)
@@ -507,6 +510,7 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
                                                              "distribution.csv") if f in stage.files]
                    + [i[0] for i in images] + ["report.html"],
         "warnings": warnings,
+        "left_out": left_out,
         "caution": CAUTION,
     }
     if extras.get("history"):

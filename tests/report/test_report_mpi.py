@@ -6,9 +6,9 @@ from the creation time; the same files are made.  Cases: the demo bead
 blocks) and a .pvd time series.
 
 Not here: CGNS (ParaView 5.11's CGNS reader loads no boundary patches on more
-than one rank; the command says so, checked below) and Exodus II (its reader
-leaves the other ranks without the blocks, which the surface filters on main
-do not yet take; see the report of this change)."""
+than one rank) and Exodus II (its reader leaves the other ranks without
+blocks, on which the surface filters of this version hang): the command
+refuses both under mpirun and says why, checked below."""
 import os
 
 import report_testing as R
@@ -54,4 +54,8 @@ cgns = F.write_cgns(os.path.join(W, "patches.cgns"), case)
 code, _, err = R.run(["--images", "no", "-o", os.path.join(W, "cgns"), cgns], mpi=2)
 R.expect("CGNS on 2 ranks: exit 1 naming the reader's limit", code == 1
          and "loads no boundary patches when it runs on more than one rank" in err, err[-400:])
+exo = F.write_exodus(os.path.join(W, "sidesets.exo"), case)
+code, _, err = R.run(["--images", "no", "-o", os.path.join(W, "exodus"), exo], mpi=2)
+R.expect("Exodus on 2 ranks: exit 1, refused rather than left to hang", code == 1
+         and "cannot run on more than one rank" in err, err[-400:])
 R.done(__file__)

@@ -248,6 +248,13 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
         raise cases.CaseError("case file %s: ParaView 5.11's CGNS reader loads no boundary patches when it "
                               "runs on more than one rank (here %d); report CGNS cases without mpirun, or "
                               "give the walls as a surface file" % (path, _ranks()))
+    if fmt.startswith("Exodus") and _ranks() > 1 and not os.environ.get("WALLLOADS_EXODUS_MPI"):
+        # The reader gives ranks other than 0 no blocks at all, and the surface
+        # filters of this version then make different collectives on different
+        # ranks (a hang). Refuse rather than hang; WALLLOADS_EXODUS_MPI=1 tries.
+        raise cases.CaseError("case file %s: Exodus II cases cannot run on more than one rank (here %d) with "
+                              "this version (the reader leaves the other ranks without blocks); report them "
+                              "without mpirun" % (path, _ranks()))
     walls, volumes, notes = cases.select_blocks(blocks, settings["walls.blocks"])
     composite = any(b.selector for b in blocks)
     if composite:

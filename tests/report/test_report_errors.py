@@ -45,20 +45,41 @@ def config_error(label, args, parts, toml=None):
     R.expect("%s: nothing written" % label, nothing_written(out))
 
 
+# Through the command: exit code 2, the message, nothing written.
 config_error("unknown flag", ["--no-such-flag", DEMO], ["unrecognized arguments", "--no-such-flag"])
 config_error("unknown key", [DEMO], ["unknown key 'pressure.arry'", "did you mean 'pressure.array'"],
              toml='[pressure]\narry = "p"\n')
-config_error("invalid toml", [DEMO], ["is not valid TOML"], toml="[pressure\n")
-config_error("wrong type", [DEMO], ["fluid.density", "expected a number"], toml='[fluid]\ndensity = "heavy"\n')
 config_error("zero reference area", ["--reference-area", "0", DEMO], ["reference.area", "must be a finite number > 0"])
-config_error("negative density", ["--density=-1", DEMO], ["fluid.density", "> 0"])
-config_error("bad choice", ["--shear-source", "vol", DEMO], ["shear.source", "one of", "did you mean 'volume'"])
-config_error("parallel axes", ["--drag-direction", "1,0,0", "--lift-direction", "2,0,0", DEMO],
-             ["axes.lift", "parallel to axes.drag"])
-config_error("bad vector", ["--moment-centre", "1,2", DEMO], ["axes.moment_centre", "3 numbers"])
-config_error("missing config", ["--config", os.path.join(W, "absent.toml"), DEMO], ["absent.toml", "not found"])
-config_error("no case", [], ["no case given"])
 config_error("pictures without display", ["--images", "yes", DEMO], ["output.images", "no X display"])
+
+
+# The same parser in-process for the other rules (each message checked).
+def parse_error(label, args, parts, toml=None):
+    if toml is not None:
+        path = os.path.join(W, label.replace(" ", "-") + ".toml")
+        with open(path, "w") as handle:
+            handle.write(toml)
+        args = ["--config", path] + args
+    try:
+        C.parse(args)
+        message = ""
+    except C.ConfigError as exc:
+        message = str(exc)
+    absent = [p for p in parts if p not in message]
+    R.expect("%s: ConfigError naming the problem" % label, message and not absent, message)
+
+
+parse_error("invalid toml", [DEMO], ["is not valid TOML"], toml="[pressure\n")
+parse_error("wrong type", [DEMO], ["fluid.density", "expected a number"], toml='[fluid]\ndensity = "heavy"\n')
+parse_error("negative density", ["--density=-1", DEMO], ["fluid.density", "> 0"])
+parse_error("bad choice", ["--shear-source", "vol", DEMO], ["shear.source", "one of", "did you mean 'volume'"])
+parse_error("parallel axes", ["--drag-direction", "1,0,0", "--lift-direction", "2,0,0", DEMO],
+            ["axes.lift", "parallel to axes.drag"])
+parse_error("bad vector", ["--moment-centre", "1,2", DEMO], ["axes.moment_centre", "3 numbers"])
+parse_error("bad range", ["--time-range", "2,1", DEMO], ["time.range", "first < second"])
+parse_error("missing config", ["--config", os.path.join(W, "absent.toml"), DEMO], ["absent.toml", "not found"])
+parse_error("no case", [], ["no case given"])
+parse_error("convergence needs three", ["--convergence", DEMO, DEMO, DEMO], ["three different cases"])
 
 
 # --- case errors: exit 1, message naming the problem, no output for the case ----
@@ -72,12 +93,21 @@ def case_error(label, cases, parts, extra=()):
     return out, err
 
 
-out, _ = case_error("missing file", [os.path.join(W, "nowhere.vtm")], ["nowhere.vtm", "not found"])
-R.expect("missing file: nothing written", nothing_written(out))
-
-out, _ = case_error("unknown block", [DEMO], ["wall block 'Top Cap' not found", "'Upper Cap' (surface, 864 cells)",
-                                              "'Lower Cap'"], extra=["--walls", "Top Cap"])
-R.expect("unknown block: nothing written", nothing_written(out))
+garbage = os.path.join(W, "garbage.vtp")
+with open(garbage, "w") as handle:
+    handle.write("<VTKFile type=\"PolyData\"><PolyData><Piece NumberOfPoints=\"4\"")
+unknown = os.path.join(W, "case.qqq")
+with open(unknown, "w") as handle:
+    handle.write("1 2 3\n")
+# Four bad cases in one run (each fails on its own): a missing file, a corrupt
+# file, a format no reader takes, and the demo with a wall block it does not have.
+out, err = case_error("bad cases", [os.path.join(W, "nowhere.vtm"), garbage, unknown, DEMO],
+                      ["nowhere.vtm not found", "garbage.vtp cannot be read", "Error parsing XML",
+                       "case.qqq", "no ParaView reader for files ending in '.qqq'",
+                       "wall block 'Top Cap' not found", "'Upper Cap' (surface, 864 cells)", "'Lower Cap'",
+                       "4 cases, 0 done, 4 failed"],
+                      extra=["--walls", "Top Cap"])
+R.expect("bad cases: nothing written at all", nothing_written(out))
 
 out, _ = case_error("unknown array", [DEMO], ["pressure array 'pressure' not found on the walls",
                                               "static_pressure (1)", "wall_shear (3)"],
@@ -86,17 +116,6 @@ R.expect("unknown array: nothing written", nothing_written(out))
 
 out, _ = case_error("wrong width", [DEMO], ["wall shear stress array 'static_pressure' has 1 components, 3 expected"],
                     extra=["--shear-source", "array", "--shear-array", "static_pressure"])
-
-garbage = os.path.join(W, "garbage.vtp")
-with open(garbage, "w") as handle:
-    handle.write("<VTKFile type=\"PolyData\"><PolyData><Piece NumberOfPoints=\"4\"")
-out, _ = case_error("corrupt file", [garbage], ["garbage.vtp", "cannot be read"])
-R.expect("corrupt file: nothing written", nothing_written(out))
-
-unknown = os.path.join(W, "case.qqq")
-with open(unknown, "w") as handle:
-    handle.write("1 2 3\n")
-out, _ = case_error("unknown format", [unknown], ["case.qqq", "no ParaView reader"])
 
 # One bad case in a sweep: the good one is reported, the index and summary say which failed.
 out, err = case_error("sweep with a bad case", [DEMO, os.path.join(W, "nowhere.vtm")], ["nowhere.vtm", "not found"])

@@ -109,4 +109,27 @@ rec = R.read_json(os.path.join(out, "convergence.json"))
 R.expect("convergence.json: cell size from the wetted area", rec["cell_size"] == "area")
 with open(os.path.join(out, "index.html")) as handle:
     R.expect("index.html shows the convergence table", "Mesh convergence" in handle.read())
+
+# Cell size from the volume when the cases hold one: three CGNS channels refined
+# by 2, with Couette flow, whose wall loads are exact on every mesh: h =
+# (V / N)^(1/3), and the loads are reported as not changing.
+import scenes.formats as F  # noqa: E402
+paths = []
+for k, name in ((4, "fine"), (2, "medium"), (1, "coarse")):
+    ch = F.channel(nx=3 * k, ny=2 * k, nz=2 * k)
+    paths.append(F.write_cgns(os.path.join(W, "channel_%s.cgns" % name), ch))
+out = os.path.join(W, "out-volume")
+code, _, err = R.run(["--convergence"] + paths + ["-o", out, "--images", "no", "--walls", "floor,lid",
+                                                  "--wall-velocity", "wall_velocity", "--viscosity", "1.5e-3"])
+R.expect("volume cell size: exit 0", code == 0, err[-1500:] if code else "")
+rec = R.read_json(os.path.join(out, "convergence.json"))
+R.expect("convergence.json: cell size from the volume", rec["cell_size"] == "volume")
+V = 2.0 * 1.0 * 0.5
+for case_rec, k in zip(rec["cases"], (4, 2, 1)):
+    R.close("h of the %s channel = (V / N)^(1/3)" % case_rec["name"], case_rec["h"],
+            (V / (12 * k ** 3)) ** (1.0 / 3.0), rtol=1e-12, source="Celik et al. 2008 eq. 2")
+table = R.csv_table(os.path.join(out, "convergence.csv"))
+R.expect("exact loads on every mesh: 'no change'", table["Viscous Force X"]["Behaviour"] in ("no change", "zero")
+         and table["Pressure Force Z"]["Behaviour"] == "no change",
+         (table["Viscous Force X"]["Behaviour"], table["Pressure Force Z"]["Behaviour"]))
 R.done(__file__)

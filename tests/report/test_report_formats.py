@@ -127,3 +127,17 @@ for name in files:
 leftovers = [f for f in os.listdir(out) if f.startswith(".")]
 R.expect("no staging folders or temporary files left", not leftovers, leftovers)
 R.done(__file__)
+
+# Time selection: the loads at the step nearest a requested time, and a range
+# that holds no step refused by name.
+out2 = os.path.join(W, "out-time")
+code, _, err = R.run(["--images", "no", "--walls", "floor,lid", "--viscosity", repr(par["mu"]), "--wall-velocity",
+                      "wall_velocity", "--report-time", "0.4", "-o", out2, files["sidesets"]])
+R.expect("--report-time 0.4: exit 0", code == 0, err[-800:] if code else "")
+rows = R.csv_table(os.path.join(out2, "sidesets", "loads.csv"))
+R.close("--report-time 0.4: loads of the nearest step (t = 0.5, U = 0.45)", rows["floor"]["Viscous Force X [N]"],
+        F.channel_exact(case, U=speeds[1])["floor"][1][0], rtol=1e-6, source="Couette")
+code, _, err = R.run(["--images", "no", "--time-range", "2,3", "-o", os.path.join(W, "out-range"), files["sidesets"]])
+R.expect("--time-range outside the steps: exit 1 naming the range and the steps", code == 1
+         and "time.range [2, 3] s holds none of the case's 3 time steps (0 to 1 s)" in err, err[-300:])
+R.done(__file__ + " (time selection)")

@@ -115,6 +115,7 @@ def run(argv):
         _err(exc)
         return 2
     started = _time.time()
+    made_out_dir = not os.path.exists(out_dir)
     simple = batch.load_plugin(threads=False)
     batch.use_threads(settings["run.smp_backend"])
     study = bool(settings["convergence.cases"])
@@ -132,6 +133,8 @@ def run(argv):
     failed = [r for r in results if r.status != "done"]
     if done:
         _write_index(settings, results, study_result, out_dir)
+    elif made_out_dir and os.path.isdir(out_dir) and not os.listdir(out_dir):
+        os.rmdir(out_dir)           # nothing reported: leave no trace
     for r in failed:
         _err("case %s (%s) failed: %s" % (r.name, r.path, r.error))
     sys.stderr.write("wallloads-report: %d case%s, %d done, %d failed, %.1f s%s\n" % (

@@ -11,7 +11,7 @@ In both, a pipeline whose reader fails raises PipelineError in the client
 import os
 import socket
 import subprocess
-import sys
+
 import time
 
 import report_testing as R

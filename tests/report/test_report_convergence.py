@@ -19,7 +19,6 @@
 import math
 import os
 
-import numpy as np
 
 import report_testing as R
 import scenes as S

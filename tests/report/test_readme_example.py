@@ -21,7 +21,9 @@ env = {k: v for k, v in os.environ.items() if not k.startswith(("OMPI_COMM", "PM
 run = subprocess.run(["pvpython", script], cwd=W, capture_output=True, text=True, env=env, timeout=120)
 print(run.stdout[-400:], run.stderr[-600:] if run.returncode else "")
 R.expect("example from another directory: exit 0", run.returncode == 0)
-drag = float(run.stdout.split()[0])
+printed = [line for line in run.stdout.splitlines() if line[:1] in "-0123456789"]   # the example's print
+R.expect("example printed the totals", len(printed) >= 1, run.stdout[-300:])
+drag = float(printed[-1].split()[0])
 R.expect("example prints a non-zero drag (%.6e N)" % drag, drag != 0.0)
 R.expect("example wrote loads.csv", os.path.exists(os.path.join(W, "loads.csv")))
 

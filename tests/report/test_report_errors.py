@@ -51,6 +51,9 @@ config_error("unknown key", [DEMO], ["unknown key 'pressure.arry'", "did you mea
              toml='[pressure]\narry = "p"\n')
 config_error("zero reference area", ["--reference-area", "0", DEMO], ["reference.area", "must be a finite number > 0"])
 config_error("pictures without display", ["--images", "yes", DEMO], ["output.images", "no X display"])
+code, _, err = R.run(["--images", "no", "-o", "/proc/wallloads-cannot-write", DEMO], env=NO_X)
+R.expect("unwritable output folder: exit 2 naming it", code == 2
+         and "output directory /proc/wallloads-cannot-write cannot be written" in err, err[-300:])
 
 
 # The same parser in-process for the other rules (each message checked).

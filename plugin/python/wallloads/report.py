@@ -110,11 +110,19 @@ def run(argv):
         out_dir = os.path.abspath(settings["output.directory"])
         if os.path.exists(out_dir) and not os.path.isdir(out_dir):
             raise C.ConfigError("output directory %s exists and is not a folder" % out_dir)
+        made_out_dir = not os.path.exists(out_dir)
+        try:
+            os.makedirs(out_dir, exist_ok=True)
+            probe = os.path.join(out_dir, ".wallloads-write-test-%d" % os.getpid())
+            with open(probe, "w"):
+                pass
+            os.unlink(probe)
+        except OSError as exc:
+            raise C.ConfigError("output directory %s cannot be written: %s" % (out_dir, exc.strerror or exc))
     except C.ConfigError as exc:
         _err(exc)
         return 2
     started = _time.time()
-    made_out_dir = not os.path.exists(out_dir)
     simple = batch.load_plugin(threads=False)
     batch.use_threads(settings["run.smp_backend"])
     study = bool(settings["convergence.cases"])

@@ -31,7 +31,10 @@ def _direction_text(d):
 
 def surface(simple, source, time, direction, path, size, bounds):
     """The walls coloured by Directional Traction (a diverging map centred on
-    zero), with a titled colour legend, in an isometric view."""
+    zero), with a titled colour legend, in an isometric view.  Returns False
+    (and draws nothing) when the walls carry no Directional Traction."""
+    if source.GetCellDataInformation().GetArray("Directional Traction") is None:
+        return False
     view = simple.CreateView("RenderView")
     try:
         view.ViewSize = list(size)
@@ -73,6 +76,7 @@ def surface(simple, source, time, direction, path, size, bounds):
         simple.SaveScreenshot(path, view, ImageResolution=list(size))
     finally:
         simple.Delete(view)
+    return True
 
 
 def line_chart(simple, table_port, x_column, series, path, size, title, x_title, y_title):

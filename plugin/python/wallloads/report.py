@@ -480,9 +480,12 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
         size = settings["output.image_size"]
         progress("pictures")
         bounds = wt.GetDataInformation().GetBounds()
-        render.surface(simple, wt, t if t is not None else 0.0, load_dir, stage.path("surface.png"), size,
-                       bounds)
-        images.append(("surface.png", "Walls coloured by the traction along %s" % _vec(load_dir)))
+        if render.surface(simple, wt, t if t is not None else 0.0, load_dir, stage.path("surface.png"), size,
+                          bounds):
+            images.append(("surface.png", "Walls coloured by the traction along %s" % _vec(load_dir)))
+        else:
+            stage.files.remove("surface.png")
+            left_out.append("no surface picture: the walls carry no 'Directional Traction' array")
         hist = extras.get("history")
         if hist and hist["series"]:
             render.line_chart(simple, hist["port"], "Time", hist["series"], stage.path("history.png"), size,

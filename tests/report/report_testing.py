@@ -92,11 +92,68 @@ def close(label, got, expected, rtol=0.0, atol=0.0, source=""):
     assert ok, "%s: %r vs %r" % (label, got, expected)
 
 
-def same_numbers(a, b, rtol=1e-12, path="", skip=("created",)):
-    """Compare two JSON-like values: numbers to rtol (relative to the larger,
-    with an absolute floor of rtol times 1e-300), everything else equal.
-    Returns the list of differences."""
+def _unit_scales(obj, scales=None):
+    """{unit: largest magnitude} over every {"value": v, "unit": u} in a JSON value."""
+    scales = {} if scales is None else scales
+    if isinstance(obj, dict):
+        if "value" in obj and "unit" in obj:
+            vals = obj["value"] if isinstance(obj["value"], list) else [obj["value"]]
+            for v in vals:
+                if isinstance(v, (int, float)) and not isinstance(v, bool) and math.isfinite(v):
+                    scales[obj["unit"]] = max(scales.get(obj["unit"], 0.0), abs(v))
+        for v in obj.values():
+            _unit_scales(v, scales)
+    elif isinstance(obj, list):
+        for v in obj:
+            _unit_scales(v, scales)
+    return scales
+
+
+def same_json(a, b, rtol=1e-12, skip=("created",)):
+    """same_numbers for two loads.json: a value with a unit is compared to rtol
+    of the largest value of that unit in the file (a component that is zero up
+    to round-off is not compared to itself), other numbers relative."""
+    return same_numbers(a, b, rtol, skip=skip, scales=_unit_scales(a))
+
+
+def same_csv(path_a, path_b, rtol=1e-12):
+    """Two CSV files: the same header and text; numbers to rtol of the largest
+    value in the file of the same unit (the unit in the header's [...]), counts
+    relative to themselves."""
+    ha, ra = read_csv(path_a)
+    hb, rb = read_csv(path_b)
+    if ha != hb or len(ra) != len(rb):
+        return ["headers or row counts differ"]
+    units = [h[h.rfind("[") + 1:-1] if h.endswith("]") and "[" in h else None for h in ha]
+    scale = {}
+    for rows in (ra, rb):
+        for r in rows:
+            for u, v in zip(units, r):
+                x = _num(v)
+                if u and isinstance(x, float) and math.isfinite(x):
+                    scale[u] = max(scale.get(u, 0.0), abs(x))
     diffs = []
+    for i, (x_row, y_row) in enumerate(zip(ra, rb)):
+        for j, (x, y) in enumerate(zip(x_row, y_row)):
+            x, y = _num(x), _num(y)
+            if isinstance(x, float) and isinstance(y, float):
+                if math.isnan(x) and math.isnan(y):
+                    continue
+                ref = max(abs(x), abs(y), scale.get(units[j], 0.0) if units[j] is not None else 0.0)
+                if not abs(x - y) <= rtol * ref:
+                    diffs.append("row %d %s: %r != %r" % (i + 1, ha[j], x, y))
+            elif x != y:
+                diffs.append("row %d %s: %r != %r" % (i + 1, ha[j], x, y))
+    return diffs
+
+
+def same_numbers(a, b, rtol=1e-12, path="", skip=("created",), scales=None, unit=None):
+    """Compare two JSON-like values: numbers to rtol (relative to the larger, or
+    to scales[unit] for values with a unit), everything else equal.  Returns
+    the list of differences."""
+    diffs = []
+    if isinstance(a, dict) and isinstance(b, dict) and "value" in a and "unit" in a and scales is not None:
+        return same_numbers(a.get("value"), b.get("value"), rtol, path + "/value", skip, scales, a["unit"])
     if isinstance(a, dict) and isinstance(b, dict):
         for k in sorted(set(a) | set(b)):
             if k in skip:
@@ -104,15 +161,16 @@ def same_numbers(a, b, rtol=1e-12, path="", skip=("created",)):
             if k not in a or k not in b:
                 diffs.append("%s/%s only in one" % (path, k))
             else:
-                diffs += same_numbers(a[k], b[k], rtol, "%s/%s" % (path, k), skip)
+                diffs += same_numbers(a[k], b[k], rtol, "%s/%s" % (path, k), skip, scales, unit)
     elif isinstance(a, list) and isinstance(b, list):
         if len(a) != len(b):
             diffs.append("%s: lengths %d and %d" % (path, len(a), len(b)))
         else:
             for i, (x, y) in enumerate(zip(a, b)):
-                diffs += same_numbers(x, y, rtol, "%s[%d]" % (path, i), skip)
+                diffs += same_numbers(x, y, rtol, "%s[%d]" % (path, i), skip, scales, unit)
     elif isinstance(a, (int, float)) and isinstance(b, (int, float)) and not isinstance(a, bool):
-        if not (math.isnan(a) and math.isnan(b)) and abs(a - b) > rtol * max(abs(a), abs(b)):
+        ref = max(abs(a), abs(b), (scales or {}).get(unit, 0.0) if unit is not None else 0.0)
+        if not (math.isnan(a) and math.isnan(b)) and abs(a - b) > rtol * ref:
             diffs.append("%s: %r != %r" % (path, a, b))
     elif a != b:
         diffs.append("%s: %r != %r" % (path, a, b))

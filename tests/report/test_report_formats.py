@@ -106,6 +106,37 @@ for name, path in files.items():
         R.close("%s: loads at the last time step" % name, rec["case"]["report_time"], times[-1])
         R.expect("%s: three time steps" % name, rec["case"]["time_steps"] == 3)
 
+# History, statistics and distribution, when this build has Load History and
+# Load Distribution (the command makes them then; checked against the exact
+# Couette loads of every step and against the loads table).
+from wallloads import batch  # noqa: E402
+simple = batch.load_plugin()
+if hasattr(simple, "LoadHistory") and hasattr(simple, "LoadDistribution"):
+    for name in ("series", "sidesets"):
+        folder = os.path.join(out, name)
+        R.expect("%s: history, statistics and distribution written" % name,
+                 all(os.path.exists(os.path.join(folder, f)) for f in ("history.csv", "statistics.csv",
+                                                                       "distribution.csv")))
+        hist = R.csv_table(os.path.join(folder, "history.csv"))
+        R.expect("%s: one history row per step" % name, sorted(hist) == ["0.0", "0.5", "1.0"], sorted(hist))
+        rtol = 1e-6 if name == "sidesets" else 1e-12
+        for t, U in zip(times, speeds):
+            R.close("%s: history floor viscous force x at t = %g" % (name, t),
+                    hist[repr(t)]["floor: Viscous Force X [N]"], F.channel_exact(case, U=U)["floor"][1][0],
+                    rtol=rtol, source="Couette")
+        stats = R.csv_table(os.path.join(folder, "statistics.csv"))
+        R.expect("%s: statistics carry the quantity's unit" % name,
+                 stats["floor: Viscous Force X"]["Unit"] == "N", stats["floor: Viscous Force X"])
+        dist_header, dist_rows = R.read_csv(os.path.join(folder, "distribution.csv"))
+        col = {h: i for i, h in enumerate(dist_header)}
+        total = sum((float(r[col["End [m]"]]) - float(r[col["Start [m]"]])) * float(r[col["Force Per Length Z [N/m]"]])
+                    for r in dist_rows)
+        loads = R.csv_table(os.path.join(folder, "loads.csv"))
+        R.close("%s: distribution adds up to the total force z" % name, total, loads["Total"]["Force Z [N]"],
+                rtol=1e-12, source="bins split faces exactly")
+else:
+    print("this build has no Load History / Load Distribution: history and distribution not checked")
+
 header, _ = R.read_csv(os.path.join(out, "walls", "loads.csv"))
 R.expect("loads.csv header carries units", "Force X [N]" in header and "Moment X [N m]" in header
          and "Area [m^2]" in header, header[:8])

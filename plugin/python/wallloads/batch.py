@@ -162,6 +162,13 @@ _MESSAGE = re.compile(r"^(?:ERROR|Warning): In [^\n]*\n(?P<who>\w+) \(0x[0-9a-f]
 _FAILURE = re.compile(r"Algorithm (?P<who>\w+) ?\(0x[0-9a-f]+\) returned failure")
 
 
+def _is_vtk_message(message, kind):
+    """A message of vtkErrorMacro / vtkWarningMacro (or an executive's failure)."""
+    text = message.lstrip()
+    return text.startswith(kind + ": In ") or bool(_FAILURE.search(text)) or bool(
+        re.match(r"^\w+ \(0x[0-9a-f]+\): ", text))
+
+
 def clean_message(message):
     """'Class: text' from a VTK error or warning message (file, line and
     object address dropped; an executive's failure report shortened)."""
@@ -194,13 +201,17 @@ class watch:
         from vtkmodules.util.vtkConstants import VTK_STRING
         from vtkmodules.vtkCommonCore import vtkOutputWindow
 
+        # Only VTK's own messages: in pvbatch and pvpython, Python's sys.stderr
+        # is also routed through the output window as error text.
         @calldata_type(VTK_STRING)
         def on_error(obj, event, message):
-            self.errors.append(clean_message(message))
+            if _is_vtk_message(message, "ERROR"):
+                self.errors.append(clean_message(message))
 
         @calldata_type(VTK_STRING)
         def on_warning(obj, event, message):
-            self.warnings.append(clean_message(message))
+            if _is_vtk_message(message, "Warning"):
+                self.warnings.append(clean_message(message))
 
         self._window = vtkOutputWindow.GetInstance()
         self._tags = [self._window.AddObserver("ErrorEvent", on_error),

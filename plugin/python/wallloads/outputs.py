@@ -143,6 +143,19 @@ def table_to_csv(table, units):
     return out.getvalue()
 
 
+def statistics_csv(columns, fixed_units, unit_of):
+    """The statistics table as CSV with a Unit column: the unit of each row's
+    quantity, which its mean, deviation, extremes, standard error and amplitude
+    share; columns of a fixed unit carry it in the header."""
+    out = io.StringIO()
+    w = csv.writer(out, lineterminator="\n")
+    names = [c for c in columns if c != "Quantity"]
+    w.writerow(["Quantity", "Unit"] + ["%s [%s]" % (c, fixed_units[c]) if c in fixed_units else c for c in names])
+    for r, q in enumerate(columns.get("Quantity", [])):
+        w.writerow([q, unit_of(q)] + [fmt(columns[c][r], c in COUNTS) for c in names])
+    return out.getvalue()
+
+
 def table_columns(table):
     """{column: [values]} of a vtkTable (numeric columns: lists of floats or tuples)."""
     out = {}

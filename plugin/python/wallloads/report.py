@@ -70,8 +70,7 @@ class Progress:
         self.index, self.name = index, name
 
     def __call__(self, text):
-        sys.stderr.write("[%d/%d] %s: %s\n" % (self.index, self.total, self.name, text))
-        sys.stderr.flush()
+        _stderr("[%d/%d] %s: %s\n" % (self.index, self.total, self.name, text))
 
 
 class CaseResult:
@@ -87,9 +86,15 @@ class CaseResult:
 # Entry point
 # ---------------------------------------------------------------------------
 
+def _stderr(text):
+    """Straight to the process's stderr: in pvbatch, sys.stderr goes through
+    VTK's output window as error text, where batch.watch() would see it."""
+    sys.stdout.flush()
+    os.write(2, text.encode("utf-8", "replace"))
+
+
 def _err(text):
-    sys.stderr.write("wallloads-report: error: %s\n" % text)
-    sys.stderr.flush()
+    _stderr("wallloads-report: error: %s\n" % text)
 
 
 def run(argv):
@@ -144,10 +149,9 @@ def run(argv):
         os.rmdir(out_dir)           # nothing reported: leave no trace
     for r in failed:
         _err("case %s (%s) failed: %s" % (r.name, r.path, r.error))
-    sys.stderr.write("wallloads-report: %d case%s, %d done, %d failed, %.1f s%s\n" % (
+    _stderr("wallloads-report: %d case%s, %d done, %d failed, %.1f s%s\n" % (
         len(results), "" if len(results) == 1 else "s", len(done), len(failed), _time.time() - started,
         (": " + os.path.join(out_dir, "index.html")) if done else ""))
-    sys.stderr.flush()
     if study and study_result is None:
         return 1
     return 0 if not failed else 1
@@ -532,6 +536,7 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
     }
     if extras.get("history"):
         record["statistics"] = extras["history"]["statistics"]
+        warnings += [m for m in extras["history"]["warnings"] if m not in warnings]
     result.record = record
     stage.write("loads.json", outputs.json_text(record))
     title = settings["output.title"] or name
@@ -622,7 +627,7 @@ def _history(simple, settings, li, selected, made, stage, progress):
     algo = hist.GetClientSideObject()
     tag = algo.AddObserver("ProgressEvent", on_progress)
     try:
-        batch.update(hist)
+        w = batch.update(hist)
     finally:
         algo.RemoveObserver(tag)
     table = algo.GetOutputDataObject(0)
@@ -642,8 +647,8 @@ def _history(simple, settings, li, selected, made, stage, progress):
     units = {c: unit_of(c) for c in cols}
     stage.write("history.csv", outputs.table_to_csv(table, units))
     stat_units = dict(STATISTICS_UNITS)
-    stage.write("statistics.csv", outputs.table_to_csv(stats, stat_units))
     stat_cols = outputs.table_columns(stats)
+    stage.write("statistics.csv", outputs.statistics_csv(stat_cols, stat_units, unit_of))
     statistics = {}
     quantities = stat_cols.get("Quantity", [])
     for r, q in enumerate(quantities):
@@ -651,7 +656,7 @@ def _history(simple, settings, li, selected, made, stage, progress):
                          for c, v in stat_cols.items() if c != "Quantity"}
     series = [c for c in ("Total: Drag", "Total: Side Force", "Total: Lift") if c in cols]
     return {"port": hist, "series": series, "columns": cols, "units": units, "statistics": statistics,
-            "steps": len(cols.get("Time", []))}
+            "steps": len(cols.get("Time", [])), "warnings": _unique(w.warnings)}
 
 
 def _cell_size_inputs(simple, settings, rows, volume_src, t, made):

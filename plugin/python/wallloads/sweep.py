@@ -56,9 +56,13 @@ def write_index(settings, results, study_result, out_dir, caution, version):
                                                study_result, caution, version))
 
 
+def _stderr(text):
+    sys.stdout.flush()
+    os.write(2, text.encode("utf-8", "replace"))
+
+
 def _err(text):
-    sys.stderr.write("wallloads-report: error: %s\n" % text)
-    sys.stderr.flush()
+    _stderr("wallloads-report: error: %s\n" % text)
 
 
 def convergence_study(settings, results, out_dir):
@@ -118,11 +122,11 @@ def convergence_study(settings, results, out_dir):
                                                     "gci_abs")] + [res["behaviour"], res["note"]])
     outputs.write_atomic(os.path.join(out_dir, "convergence.csv"), text.getvalue())
     outputs.write_atomic(os.path.join(out_dir, "convergence.json"), outputs.json_text(record))
-    sys.stderr.write("wallloads-report: mesh convergence (%s cell size): h = %s m\n"
-                     % (record["cell_size"], ", ".join("%.4g" % h for h in sizes)))
+    _stderr("wallloads-report: mesh convergence (%s cell size): h = %s m\n"
+            % (record["cell_size"], ", ".join("%.4g" % h for h in sizes)))
     for q in ("Drag", "Lift", "Force Z"):
         if q in study and math.isfinite(study[q]["order"]):
-            sys.stderr.write("  %s: order %.3f, extrapolated %.6g %s, GCI %.3g %% (%s)\n" % (
+            _stderr("  %s: order %.3f, extrapolated %.6g %s, GCI %.3g %% (%s)\n" % (
                 q, study[q]["order"], study[q]["phi_ext"], study[q]["unit"], 100 * study[q]["gci"],
                 study[q]["behaviour"]))
     return record

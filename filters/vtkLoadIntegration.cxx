@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #include "vtkLoadIntegration.h"
 
+#include "WallLoadsColumns.h"
+#include "WallLoadsDefaults.h"
 #include "WallLoadsPipeline.h"
 #include "wallloads/FaceGeometry.h"
 #include "wallloads/LoadAxes.h"
@@ -120,78 +122,258 @@ void SumLeaf(const LeafInputs& in, vtkDataSet* ds, const double r0[3], std::vect
   }
 }
 
-/// Columns of the table, in order; the same names label the field data.
-struct Column
+/// The reference values of one execution and where each came from.
+struct ReferenceState
 {
-  const char* Name;
-  int Components;
-  bool Coefficient;
-};
-const Column Columns[] = {
-  { "Faces", 1, false },
-  { "Skipped Faces", 1, false },
-  { "Area", 1, false },
-  { "Pressure Force", 3, false },
-  { "Viscous Force", 3, false },
-  { "Force", 3, false },
-  { "Pressure Moment", 3, false },
-  { "Viscous Moment", 3, false },
-  { "Moment", 3, false },
-  { "Drag", 1, false },
-  { "Side Force", 1, false },
-  { "Lift", 1, false },
-  { "Rolling Moment", 1, false },
-  { "Pitching Moment", 1, false },
-  { "Yawing Moment", 1, false },
-  { "Drag Coefficient", 1, true },
-  { "Side Force Coefficient", 1, true },
-  { "Lift Coefficient", 1, true },
-  { "Rolling Moment Coefficient", 1, true },
-  { "Pitching Moment Coefficient", 1, true },
-  { "Yawing Moment Coefficient", 1, true },
-  { "Line Of Action Point", 3, false },
-  { "Residual Couple", 1, false },
+  ReferenceValues<double> Values;
+  LoadAxes<double> Axes;
+  double Centre[3] = { 0, 0, 0 };
+  std::string DensityFrom, SpeedFrom, DragFrom, LiftFrom;
+  double DynamicPressure() const { return this->Values.DynamicPressure(); }
 };
 
-/// Values of a finished region in column order.
-std::vector<double> RowValues(const RegionLoads<double>& r, bool coefficients)
+/// A one-value field array of the input, if present and finite.
+bool FieldValue(vtkFieldData* fd, const char* name, double* out, int components)
 {
-  std::vector<double> v;
-  auto push = [&v](const double* x, int n) { v.insert(v.end(), x, x + n); };
-  push(&r.FaceCount, 1);
-  push(&r.SkippedCount, 1);
-  push(&r.Area, 1);
-  push(r.PressureForce, 3);
-  push(r.ViscousForce, 3);
-  push(r.Force, 3);
-  push(r.PressureMoment, 3);
-  push(r.ViscousMoment, 3);
-  push(r.Moment, 3);
-  push(&r.Drag, 1);
-  push(&r.SideForce, 1);
-  push(&r.Lift, 1);
-  push(&r.RollingMoment, 1);
-  push(&r.PitchingMoment, 1);
-  push(&r.YawingMoment, 1);
+  vtkDataArray* a = fd ? fd->GetArray(name) : nullptr;
+  if (!a || a->GetNumberOfTuples() < 1 || a->GetNumberOfComponents() != components)
+  {
+    return false;
+  }
+  for (int k = 0; k < components; ++k)
+  {
+    out[k] = a->GetComponent(0, k);
+    if (!std::isfinite(out[k]))
+    {
+      return false;
+    }
+  }
+  return true;
+}
+
+/// The values used in the table, and the message that says so. Returns
+/// false (with `error`) when the axes cannot be made.
+bool ResolveReference(vtkLoadIntegration* self, vtkFieldData* upstream, ReferenceState& ref,
+  std::string& error)
+{
+  const char* fromTraction = "from Wall Traction";
+  ref.Values.Density = self->GetReferenceDensity();
+  ref.DensityFrom = "set here";
+  if (!(ref.Values.Density > 0))
+  {
+    ref.DensityFrom = fromTraction;
+    if (!FieldValue(upstream, "Reference Density", &ref.Values.Density, 1) ||
+      !(ref.Values.Density > 0))
+    {
+      ref.Values.Density = 1;
+      ref.DensityFrom = "default";
+    }
+  }
+  ref.Values.Speed = self->GetReferenceSpeed();
+  ref.SpeedFrom = "set here";
+  if (!(ref.Values.Speed > 0))
+  {
+    ref.SpeedFrom = fromTraction;
+    if (!FieldValue(upstream, "Reference Speed", &ref.Values.Speed, 1) ||
+      !(ref.Values.Speed >= 0))
+    {
+      ref.Values.Speed = 0;
+      ref.SpeedFrom = "none set";
+    }
+  }
+  ref.Values.Area = self->GetReferenceArea();
+  ref.Values.Length = self->GetReferenceLength();
+  ref.Values.Span = self->GetReferenceSpan();
+  self->GetMomentCentre(ref.Centre);
+
+  double drag[3], lift[3];
+  self->GetDragDirection(drag);
+  self->GetLiftDirection(lift);
+  ref.DragFrom = "set here";
+  if (Norm(drag) == 0)
+  {
+    ref.DragFrom = "Wall Traction's Load Direction";
+    if (!FieldValue(upstream, "Load Direction", drag, 3) || !(Norm(drag) > 0))
+    {
+      drag[0] = 1;
+      drag[1] = drag[2] = 0;
+      ref.DragFrom = "default";
+    }
+  }
+  ref.LiftFrom = "set here";
+  if (Norm(lift) == 0)
+  {
+    // +z made orthogonal to the drag, or +x when the drag is along z.
+    const double nd = Norm(drag);
+    const bool alongZ = nd > 0 && std::fabs(drag[2]) > (1 - 1e-9) * nd;
+    lift[0] = alongZ ? 1 : 0;
+    lift[1] = 0;
+    lift[2] = alongZ ? 0 : 1;
+    ref.LiftFrom = alongZ ? "default: +x, the drag being along z" : "default: +z";
+  }
+  if (!MakeLoadAxes(drag, lift, ref.Axes))
+  {
+    std::ostringstream os;
+    os << "Drag Direction (" << drag[0] << ", " << drag[1] << ", " << drag[2] << ", "
+       << ref.DragFrom << ") and Lift Direction (" << lift[0] << ", " << lift[1] << ", "
+       << lift[2] << ", " << ref.LiftFrom
+       << ") must be non-zero and not parallel: set Lift Direction.";
+    error = os.str();
+    return false;
+  }
+  return true;
+}
+
+std::string Describe(const ReferenceState& ref, bool coefficients)
+{
+  std::ostringstream os;
+  auto vec = [&os](const double* v) { os << "(" << v[0] << ", " << v[1] << ", " << v[2] << ")"; };
+  os << "reference values used: density " << ref.Values.Density << " kg/m^3 (" << ref.DensityFrom
+     << "), speed " << ref.Values.Speed << " m/s (" << ref.SpeedFrom << "), q = "
+     << ref.DynamicPressure() << " Pa";
   if (coefficients)
   {
-    push(&r.DragCoefficient, 1);
-    push(&r.SideForceCoefficient, 1);
-    push(&r.LiftCoefficient, 1);
-    push(&r.RollingMomentCoefficient, 1);
-    push(&r.PitchingMomentCoefficient, 1);
-    push(&r.YawingMomentCoefficient, 1);
+    os << ", area " << ref.Values.Area << " m^2, length " << ref.Values.Length << " m, span "
+       << ref.Values.Span << " m";
   }
-  push(r.LineOfActionPoint, 3);
-  push(&r.ResidualCouple, 1);
+  else
+  {
+    os << " (no coefficients: set a reference speed here or in Wall Traction)";
+  }
+  os << "; drag direction ";
+  vec(ref.Axes.Drag);
+  os << " (" << ref.DragFrom << "), lift direction ";
+  vec(ref.Axes.Lift);
+  os << " (" << ref.LiftFrom << "); moments about ";
+  vec(ref.Centre);
+  os << " m.";
+  return os.str();
+}
+
+/// The reference values as they appear in the table and field data, in the
+/// order of columns::ReferenceColumns.
+std::vector<double> ReferenceRow(const ReferenceState& ref)
+{
+  std::vector<double> v = { ref.Values.Density, ref.Values.Speed, ref.DynamicPressure(),
+    ref.Values.Area, ref.Values.Length, ref.Values.Span };
+  auto push = [&v](const double* x) { v.insert(v.end(), x, x + 3); };
+  push(ref.Centre);
+  push(ref.Axes.Drag);
+  push(ref.Axes.Side);
+  push(ref.Axes.Lift);
   return v;
+}
+
+vtkSmartPointer<vtkDoubleArray> NewColumn(
+  const std::string& name, const char* unit, int components, vtkIdType rows)
+{
+  auto column = vtkSmartPointer<vtkDoubleArray>::New();
+  column->SetName(name.c_str());
+  column->SetNumberOfComponents(components);
+  column->SetNumberOfTuples(rows);
+  SetUnits(column, unit);
+  return column;
+}
+
+/// Port 0's field data: the Total row and the reference values, with units.
+void AddTotals(vtkFieldData* fd, const RegionLoads<double>& total, bool coefficients,
+  const ReferenceState& ref)
+{
+  for (const columns::LoadColumn& col : columns::LoadColumns)
+  {
+    if ((col.Flags & columns::COEFFICIENT) && !coefficients)
+    {
+      continue;
+    }
+    SetFieldValue(fd, col.Name, col.Values(total), col.Components);
+    SetUnits(fd->GetAbstractArray(col.Name), col.Unit);
+  }
+  const std::vector<double> refRow = ReferenceRow(ref);
+  std::size_t at = 0;
+  for (const columns::NamedUnit& col : columns::ReferenceColumns)
+  {
+    SetFieldValue(fd, col.Name, refRow.data() + at, col.Components);
+    SetUnits(fd->GetAbstractArray(col.Name), col.Unit);
+    at += static_cast<std::size_t>(col.Components);
+  }
+}
+
+/**
+ * The Load Table (every column, scripting names) and the Load Summary
+ * (region and scalar loads, units in the names), from one column list.
+ * `rows` ends with the Total row.
+ */
+void FillTables(vtkTable* table, vtkTable* summary, const std::vector<RegionLoads<double>>& rows,
+  const std::vector<std::string>& rowNames, const std::vector<double>& rowIds, bool coefficients,
+  const ReferenceState& ref)
+{
+  const vtkIdType n = static_cast<vtkIdType>(rows.size());
+  auto regions = vtkSmartPointer<vtkStringArray>::New();
+  regions->SetName("Region");
+  regions->SetNumberOfValues(n);
+  auto boundary = vtkSmartPointer<vtkStringArray>::New();
+  boundary->SetName(columns::SummaryRegionColumn);
+  boundary->SetNumberOfValues(n);
+  // Double, so that the Total row can be NaN and never equal a region value.
+  auto ids = NewColumn("Region Id", columns::UnitOf("Region Id"), 1, n);
+  for (vtkIdType r = 0; r < n; ++r)
+  {
+    regions->SetValue(r, rowNames[static_cast<std::size_t>(r)]);
+    boundary->SetValue(r, rowNames[static_cast<std::size_t>(r)]);
+    ids->SetValue(r, rowIds[static_cast<std::size_t>(r)]);
+  }
+  table->AddColumn(regions);
+  table->AddColumn(ids);
+  summary->AddColumn(boundary);
+  for (const columns::LoadColumn& col : columns::LoadColumns)
+  {
+    if ((col.Flags & columns::COEFFICIENT) && !coefficients)
+    {
+      continue;
+    }
+    auto column = NewColumn(col.Name, col.Unit, col.Components, n);
+    for (vtkIdType r = 0; r < n; ++r)
+    {
+      column->SetTypedTuple(r, col.Values(rows[static_cast<std::size_t>(r)]));
+    }
+    table->AddColumn(column);
+    if (col.SummaryName)
+    {
+      const std::string unit(col.Unit);
+      const std::string label =
+        unit == "-" ? std::string(col.SummaryName) : std::string(col.SummaryName) + " [" + unit + "]";
+      auto brief = NewColumn(label, col.Unit, col.Components, n);
+      brief->DeepCopy(column);
+      brief->SetName(label.c_str());
+      SetUnits(brief, col.Unit);
+      summary->AddColumn(brief);
+    }
+  }
+  const std::vector<double> refRow = ReferenceRow(ref);
+  std::size_t at = 0;
+  for (const columns::NamedUnit& col : columns::ReferenceColumns)
+  {
+    auto column = NewColumn(col.Name, col.Unit, col.Components, n);
+    for (vtkIdType r = 0; r < n; ++r)
+    {
+      column->SetTypedTuple(r, refRow.data() + at);
+    }
+    table->AddColumn(column);
+    at += static_cast<std::size_t>(col.Components);
+  }
+  if (coefficients)
+  {
+    auto q = NewColumn("Dynamic Pressure [Pa]", "Pa", 1, n);
+    q->FillValue(ref.DynamicPressure());
+    summary->AddColumn(q);
+  }
 }
 } // namespace
 
 //------------------------------------------------------------------------------
 vtkLoadIntegration::vtkLoadIntegration()
 {
-  this->SetNumberOfOutputPorts(2);
+  this->SetNumberOfOutputPorts(3);
   this->SetInputArrayToProcess(REGION_ARRAY, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "");
 }
 
@@ -239,10 +421,13 @@ int vtkLoadIntegration::RequestDataObject(
     fresh.TakeReference(input->NewInstance());
     info0->Set(vtkDataObject::DATA_OBJECT(), fresh);
   }
-  vtkInformation* info1 = outputVector->GetInformationObject(1);
-  if (!vtkTable::GetData(info1))
+  for (int port = 1; port <= 2; ++port)
   {
-    info1->Set(vtkDataObject::DATA_OBJECT(), vtkSmartPointer<vtkTable>::New());
+    vtkInformation* info = outputVector->GetInformationObject(port);
+    if (!vtkTable::GetData(info))
+    {
+      info->Set(vtkDataObject::DATA_OBJECT(), vtkSmartPointer<vtkTable>::New());
+    }
   }
   return 1;
 }
@@ -254,40 +439,72 @@ int vtkLoadIntegration::RequestData(
   vtkDataObject* input = vtkDataObject::GetData(inputVector[0], 0);
   vtkDataObject* output = vtkDataObject::GetData(outputVector, 0);
   vtkTable* table = vtkTable::GetData(outputVector, 1);
-  if (!input || !output || !table)
+  vtkTable* summary = vtkTable::GetData(outputVector, 2);
+  if (!input || !output || !table || !summary)
   {
     vtkErrorMacro("Missing input or output.");
     return 0;
   }
-  LoadAxes<double> axes;
-  if (!MakeLoadAxes(this->DragDirection, this->LiftDirection, axes))
+  // The reference state: properties, else what Wall Traction recorded (the
+  // same global field data on every rank, so all ranks agree).
+  ReferenceState ref;
   {
-    vtkErrorMacro("DragDirection and LiftDirection must be non-zero and not parallel.");
-    return 0;
+    std::string error;
+    if (!ResolveReference(this, input->GetFieldData(), ref, error))
+    {
+      vtkErrorMacro(<< error);
+      return 0;
+    }
   }
+  const LoadAxes<double>& axes = ref.Axes;
   ArraySelection regionSel = SelectedArray(this, REGION_ARRAY);
   regionSel.OnPoints = false; // regions are cells
 
   std::vector<Leaf> leaves;
   std::vector<std::string> regionNames;
   ListLeaves(input, leaves, regionNames);
+  this->UpdateProgress(0.0);
 
-  // Validate locally; agree on the outcome (and the region-value range) in
-  // one collective so that every rank takes the same branch.
+  // Validate locally; agree on the outcome (and the region-value range, and
+  // which regions are volume blocks) in one collective so that every rank
+  // takes the same branch. Leaves without 2D cells (volume blocks passed on
+  // by Wall Traction) are left out.
   std::string error;
   std::vector<LeafInputs> inputs(leaves.size());
-  double localMin = VTK_DOUBLE_MAX, localMax = -VTK_DOUBLE_MAX;
-  for (std::size_t i = 0; i < leaves.size() && error.empty(); ++i)
+  std::vector<LeafKind> kinds(leaves.size(), LeafKind::Empty);
+  std::vector<std::string> passed;
+  double localMin = VTK_DOUBLE_MAX, localMax = -VTK_DOUBLE_MAX, localCells = 0;
+  const std::size_t numBlockRegions = regionNames.size();
+  // agreed: failure, max, -min, surface cells, then per block region
+  // (has surface cells, has volume cells).
+  std::vector<double> agreed(4 + 2 * numBlockRegions, 0.0);
+  for (std::size_t i = 0; i < leaves.size(); ++i)
   {
-    vtkDataSet* ds = leaves[i].Data;
-    if (!ds || ds->GetNumberOfCells() == 0)
+    kinds[i] = ClassifyLeaf(leaves[i].Data);
+    const std::size_t region = static_cast<std::size_t>(leaves[i].Region);
+    if (kinds[i] == LeafKind::NoFaces)
+    {
+      passed.push_back(leaves[i].Name.empty() ? "block" : leaves[i].Name);
+      if (region < numBlockRegions)
+      {
+        agreed[4 + 2 * region + 1] = 1;
+      }
+      continue;
+    }
+    if (kinds[i] != LeafKind::Surface || !error.empty())
     {
       continue;
     }
+    if (region < numBlockRegions)
+    {
+      agreed[4 + 2 * region] = 1;
+    }
+    vtkDataSet* ds = leaves[i].Data;
+    localCells += static_cast<double>(ds->GetNumberOfCells());
     LeafInputs& in = inputs[i];
     if (!CheckGhostArrays(ds, leaves[i].Name, error))
     {
-      break;
+      continue;
     }
     auto need = [&](const char* name, int comps, ArrayView& view) {
       if (!error.empty())
@@ -303,7 +520,7 @@ int vtkLoadIntegration::RequestData(
     need(names::FaceArea, 1, in.Area);
     if (error.empty() && regionSel.Set())
     {
-      vtkDataArray* a = FindSelectedArray(ds, regionSel, 1, "Region", leaves[i].Name, error);
+      vtkDataArray* a = FindSelectedArray(ds, regionSel, 1, "Region Array", leaves[i].Name, error);
       in.Region = MakeArrayView(a, false);
       if (a)
       {
@@ -317,7 +534,7 @@ int vtkLoadIntegration::RequestData(
           }
           if (!std::isfinite(v) || v != std::floor(v))
           {
-            error = "Region array '" + regionSel.Name + "' holds a value that is not an integer.";
+            error = "Region Array '" + regionSel.Name + "' holds a value that is not an integer.";
             break;
           }
           localMin = std::min(localMin, v);
@@ -333,13 +550,11 @@ int vtkLoadIntegration::RequestData(
       error = "Block '" + leaves[i].Name + "' has cells but no points.";
     }
   }
-  double localCells = 0;
-  for (const Leaf& leaf : leaves)
-  {
-    localCells += leaf.Data ? static_cast<double>(leaf.Data->GetNumberOfCells()) : 0.0;
-  }
-  double agreed[4] = { error.empty() ? 0.0 : 1.0, localMax, -localMin, localCells };
-  GlobalMax(agreed, 4);
+  agreed[0] = error.empty() ? 0.0 : 1.0;
+  agreed[1] = localMax;
+  agreed[2] = -localMin;
+  agreed[3] = localCells;
+  GlobalMax(agreed.data(), static_cast<int>(agreed.size()));
   if (agreed[0] == 0 && agreed[3] == 0 && !input->GetFieldData()->GetArray(names::WettedArea))
   {
     // An empty input that never went through Wall Traction (or that Wall
@@ -353,10 +568,11 @@ int vtkLoadIntegration::RequestData(
     ReportAgreedFailure(this, error);
     return 0;
   }
+  this->UpdateProgress(0.1);
 
   // Regions.
   long long regionBase = 0;
-  std::size_t numRegions = regionNames.size();
+  std::size_t numRegions = numBlockRegions;
   if (regionSel.Set())
   {
     if (agreed[1] < -agreed[2])
@@ -369,7 +585,7 @@ int vtkLoadIntegration::RequestData(
       const long long span = static_cast<long long>(agreed[1]) - regionBase + 1;
       if (span > MaximumRegionSpan)
       {
-        vtkErrorMacro("Region array '" << regionSel.Name << "' spans " << span
+        vtkErrorMacro("Region Array '" << regionSel.Name << "' spans " << span
                                        << " values; at most " << MaximumRegionSpan
                                        << " are supported.");
         return 0;
@@ -378,22 +594,32 @@ int vtkLoadIntegration::RequestData(
     }
   }
   std::vector<Sums> sums(numRegions);
-  const double* r0 = this->MomentCentre;
-  for (std::size_t i = 0; i < leaves.size(); ++i)
+  const double* r0 = ref.Centre;
+  double localCellsDone = 0;
+  bool aborted = false;
+  for (std::size_t i = 0; i < leaves.size() && !aborted; ++i)
   {
     vtkDataSet* ds = leaves[i].Data;
-    if (!ds || ds->GetNumberOfCells() == 0)
+    if (kinds[i] != LeafKind::Surface)
     {
       continue;
+    }
+    if (this->GetAbortExecute())
+    {
+      aborted = true;
+      break;
     }
     inputs[i].RegionBase = regionBase;
     DispatchFaces(ds, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
       SumLeaf<decltype(id), decltype(pt)>(inputs[i], ds, r0, sums);
     });
+    localCellsDone += static_cast<double>(ds->GetNumberOfCells());
+    this->UpdateProgress(0.1 + 0.8 * (localCells > 0 ? localCellsDone / localCells : 1.0));
   }
 
-  // One reduction of every running sum and its compensation.
-  std::vector<double> flat(numRegions * NumLoadSlots * 2);
+  // One reduction of every running sum and its compensation, and of the
+  // abort request (the last value).
+  std::vector<double> flat(numRegions * NumLoadSlots * 2 + 1);
   for (std::size_t r = 0; r < numRegions; ++r)
   {
     for (std::size_t k = 0; k < NumLoadSlots; ++k)
@@ -402,18 +628,20 @@ int vtkLoadIntegration::RequestData(
       flat[(r * NumLoadSlots + k) * 2 + 1] = sums[r].Sums.Terms[k].Carry;
     }
   }
+  flat.back() = aborted ? 1.0 : 0.0;
   GlobalSum(flat.data(), static_cast<int>(flat.size()));
+  if (flat.back() > 0)
+  {
+    // Stopped on request: nothing partial is passed on as a result.
+    output->Initialize();
+    table->Initialize();
+    summary->Initialize();
+    return 1;
+  }
 
-  ReferenceValues<double> ref;
-  ref.Density = this->ReferenceDensity;
-  ref.Speed = this->ReferenceSpeed;
-  ref.Area = this->ReferenceArea;
-  ref.Length = this->ReferenceLength;
-  ref.Span = this->ReferenceSpan;
-  const bool coefficients = ref.DynamicPressure() * ref.Area > 0;
-
+  const bool coefficients = ref.DynamicPressure() * ref.Values.Area > 0;
   std::vector<std::string> rowNames;
-  std::vector<long long> rowIds;
+  std::vector<double> rowIds;
   std::vector<RegionLoads<double>> rows;
   CompensatedSum<double> totalSlots[NumLoadSlots];
   for (std::size_t r = 0; r < numRegions; ++r)
@@ -431,17 +659,22 @@ int vtkLoadIntegration::RequestData(
     {
       continue; // a value that no face carries
     }
+    if (!regionSel.Set() && agreed[4 + 2 * r + 1] > 0 && agreed[4 + 2 * r] == 0)
+    {
+      continue; // a volume block: no wall faces, no row
+    }
     RegionLoads<double> loads;
-    FinishRegion(slots, r0, axes, ref, loads);
+    FinishRegion(slots, r0, axes, ref.Values, loads);
     rows.push_back(loads);
     if (regionSel.Set())
     {
-      rowIds.push_back(regionBase + static_cast<long long>(r));
-      rowNames.push_back(regionSel.Name + " " + std::to_string(rowIds.back()));
+      const long long id = regionBase + static_cast<long long>(r);
+      rowIds.push_back(static_cast<double>(id));
+      rowNames.push_back(regionSel.Name + " " + std::to_string(id));
     }
     else
     {
-      rowIds.push_back(static_cast<long long>(r));
+      rowIds.push_back(static_cast<double>(r));
       rowNames.push_back(regionNames[r]);
     }
   }
@@ -451,78 +684,44 @@ int vtkLoadIntegration::RequestData(
     total[k] = totalSlots[k].Value();
   }
   RegionLoads<double> totalLoads;
-  FinishRegion(total, r0, axes, ref, totalLoads);
+  FinishRegion(total, r0, axes, ref.Values, totalLoads);
 
-  // Port 0: the input plus the totals as field data (global on every rank).
+  // Port 0: the input plus the totals and reference values as field data
+  // (global on every rank).
   output->ShallowCopy(input);
   vtkSmartPointer<vtkFieldData> fd = vtkSmartPointer<vtkFieldData>::New();
   fd->ShallowCopy(input->GetFieldData());
-  const std::vector<double> totalRow = RowValues(totalLoads, coefficients);
-  {
-    std::size_t at = 0;
-    for (const Column& col : Columns)
-    {
-      if (col.Coefficient && !coefficients)
-      {
-        continue;
-      }
-      SetFieldValue(fd, col.Name, totalRow.data() + at, col.Components);
-      at += col.Components;
-    }
-  }
-  SetFieldValue(fd, "Moment Centre", r0, 3);
-  SetFieldValue(fd, "Drag Direction", axes.Drag, 3);
-  SetFieldValue(fd, "Side Direction", axes.Side, 3);
-  SetFieldValue(fd, "Lift Direction", axes.Lift, 3);
+  AddTotals(fd, totalLoads, coefficients, ref);
   output->SetFieldData(fd);
 
-  // Port 1: the table, on rank 0 only.
+  // Ports 1 and 2: the tables, on rank 0 only.
   table->Initialize();
+  summary->Initialize();
   if (ProcessRank() == 0)
   {
-    auto regionColumn = vtkSmartPointer<vtkStringArray>::New();
-    regionColumn->SetName("Region");
-    // Double, so that the Total row can be NaN and never equal a region value.
-    auto idColumn = vtkSmartPointer<vtkDoubleArray>::New();
-    idColumn->SetName("Region Id");
-    const std::size_t numRows = rows.size() + 1;
-    regionColumn->SetNumberOfValues(static_cast<vtkIdType>(numRows));
-    idColumn->SetNumberOfValues(static_cast<vtkIdType>(numRows));
-    for (std::size_t r = 0; r < rows.size(); ++r)
+    rows.push_back(totalLoads);
+    rowNames.emplace_back("Total");
+    rowIds.push_back(std::nan(""));
+    FillTables(table, summary, rows, rowNames, rowIds, coefficients, ref);
+    std::ostringstream info;
+    info << Describe(ref, coefficients);
+    if (!passed.empty())
     {
-      regionColumn->SetValue(static_cast<vtkIdType>(r), rowNames[r]);
-      idColumn->SetValue(static_cast<vtkIdType>(r), static_cast<double>(rowIds[r]));
+      info << " Blocks without 2D cells left out (no wall faces): " << QuotedList(passed, 12)
+           << ".";
     }
-    regionColumn->SetValue(static_cast<vtkIdType>(rows.size()), "Total");
-    idColumn->SetValue(static_cast<vtkIdType>(rows.size()), std::nan(""));
-    table->AddColumn(regionColumn);
-    table->AddColumn(idColumn);
-    std::vector<std::vector<double>> values;
-    for (const RegionLoads<double>& r : rows)
+    Notice(this, info.str());
+    double upstreamSpeed = 0, upstreamQ = 0;
+    if (FieldValue(input->GetFieldData(), "Reference Speed", &upstreamSpeed, 1) &&
+      upstreamSpeed > 0 && FieldValue(input->GetFieldData(), "Dynamic Pressure", &upstreamQ, 1) &&
+      std::fabs(upstreamQ - ref.DynamicPressure()) > 1e-9 * std::max(upstreamQ, ref.DynamicPressure()))
     {
-      values.push_back(RowValues(r, coefficients));
-    }
-    values.push_back(totalRow);
-    std::size_t at = 0;
-    for (const Column& col : Columns)
-    {
-      if (col.Coefficient && !coefficients)
-      {
-        continue;
-      }
-      auto column = vtkSmartPointer<vtkDoubleArray>::New();
-      column->SetName(col.Name);
-      column->SetNumberOfComponents(col.Components);
-      column->SetNumberOfTuples(static_cast<vtkIdType>(numRows));
-      for (std::size_t r = 0; r < numRows; ++r)
-      {
-        for (int k = 0; k < col.Components; ++k)
-        {
-          column->SetComponent(static_cast<vtkIdType>(r), k, values[r][at + k]);
-        }
-      }
-      table->AddColumn(column);
-      at += col.Components;
+      vtkWarningMacro("Load Integration's dynamic pressure q = "
+        << ref.DynamicPressure() << " Pa (Reference Density " << ref.Values.Density
+        << " kg/m^3, Reference Speed " << ref.Values.Speed
+        << " m/s) differs from the q = " << upstreamQ
+        << " Pa of Wall Traction's pressure and skin friction coefficients: set the density "
+           "and speed in Wall Traction only, and leave them 0 here.");
     }
     if (totalLoads.SkippedCount > 0)
     {
@@ -535,7 +734,14 @@ int vtkLoadIntegration::RequestData(
       vtkWarningMacro("Load Integration: the input holds no wall faces; all totals are zero.");
     }
   }
+  this->UpdateProgress(1.0);
   return 1;
+}
+
+//------------------------------------------------------------------------------
+const char* vtkLoadIntegration::GetColumnUnit(const char* name)
+{
+  return wallloads::columns::UnitOf(name);
 }
 
 //------------------------------------------------------------------------------

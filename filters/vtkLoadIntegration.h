@@ -27,8 +27,31 @@
  * a collection; a plain dataset is one region. A `Total` row closes the table.
  *
  * Output port 0: the input, with the `Total` row as field data (arrays named
- * like the table columns) plus the load axes and moment centre. Output port
- * 1: a vtkTable with one row per region and the `Total` row.
+ * like the table columns) plus the reference values used. Output port 1
+ * (Load Table): a vtkTable with `Region`, `Region Id`, one row per region
+ * and the `Total` row, the load columns and the reference values used
+ * (constant columns: Reference Density, Reference Speed, Dynamic Pressure,
+ * Reference Area/Length/Span, Moment Centre, Drag/Side/Lift Direction).
+ * Output port 2 (Load Summary): the same rows, region name and the scalar
+ * loads with units in the column names ("Drag [N]"), for reading in
+ * ParaView's spreadsheet view (which orders columns by name: the region
+ * column is named "Boundary" so that it sorts first). Every column and
+ * field value carries its unit (vtkDataArray::UNITS_LABEL()); names, units
+ * and meanings come from the one list in WallLoadsColumns.h.
+ *
+ * Reference state: ReferenceDensity 0 (default) takes the input's field
+ * value `Reference Density` (Wall Traction's Density), else 1;
+ * ReferenceSpeed 0 (default) takes `Reference Speed`, else 0 (no
+ * coefficients); DragDirection (0, 0, 0) (default) takes `Load Direction`,
+ * else (1, 0, 0); LiftDirection (0, 0, 0) (default) is +z made orthogonal to
+ * the drag direction, or +x when the drag is along z. An information
+ * message says which values were used; a warning says when Wall Traction's
+ * coefficients used another dynamic pressure.
+ *
+ * Composite inputs may hold blocks without 2D cells (volume blocks passed on
+ * by Wall Traction): they are left out (no row) and named once in an
+ * information message. Progress is reported per block; an abort request is
+ * honoured between blocks (all ranks agree; no output then).
  *
  * Faces whose force or area is not finite (faces Wall Traction skipped) are
  * left out and counted in `Skipped Faces`; the filter warns when any are.
@@ -65,13 +88,15 @@ public:
   ///@}
 
   ///@{
-  /// Drag direction (normalised). Default (1, 0, 0).
+  /// Drag direction (normalised). Default (0, 0, 0): Wall Traction's Load
+  /// Direction from the input's field data, else (1, 0, 0).
   vtkSetVector3Macro(DragDirection, double);
   vtkGetVector3Macro(DragDirection, double);
   ///@}
 
   ///@{
-  /// Lift direction, made orthogonal to the drag direction. Default (0, 0, 1).
+  /// Lift direction, made orthogonal to the drag direction. Default
+  /// (0, 0, 0): +z, or +x when the drag direction is along z.
   vtkSetVector3Macro(LiftDirection, double);
   vtkGetVector3Macro(LiftDirection, double);
   ///@}
@@ -86,13 +111,15 @@ public:
   void SetFlowAngles(double angleOfAttackDegrees, double sideslipDegrees);
 
   ///@{
-  /// Reference density in kg/m^3. Default 1.
+  /// Reference density in kg/m^3. Default 0: Wall Traction's Density from
+  /// the input's field data, else 1.
   vtkSetMacro(ReferenceDensity, double);
   vtkGetMacro(ReferenceDensity, double);
   ///@}
 
   ///@{
-  /// Reference speed in m/s; 0 (default) reports no coefficients.
+  /// Reference speed in m/s. Default 0: Wall Traction's Reference Speed
+  /// from the input's field data; no coefficients when that is 0 too.
   vtkSetMacro(ReferenceSpeed, double);
   vtkGetMacro(ReferenceSpeed, double);
   ///@}
@@ -115,6 +142,10 @@ public:
   vtkGetMacro(ReferenceSpan, double);
   ///@}
 
+  /// SI unit of a WallLoads output name (column, array or field value; "-"
+  /// for dimensionless), or nullptr for other names.
+  static const char* GetColumnUnit(const char* name);
+
   /// Largest span of region-array values accepted (max - min + 1).
   static constexpr long long MaximumRegionSpan = 1000000;
 
@@ -128,9 +159,9 @@ protected:
   int RequestData(vtkInformation*, vtkInformationVector**, vtkInformationVector*) override;
 
   double MomentCentre[3] = { 0.0, 0.0, 0.0 };
-  double DragDirection[3] = { 1.0, 0.0, 0.0 };
-  double LiftDirection[3] = { 0.0, 0.0, 1.0 };
-  double ReferenceDensity = 1.0;
+  double DragDirection[3] = { 0.0, 0.0, 0.0 };
+  double LiftDirection[3] = { 0.0, 0.0, 0.0 };
+  double ReferenceDensity = 0.0;
   double ReferenceSpeed = 0.0;
   double ReferenceArea = 1.0;
   double ReferenceLength = 1.0;

@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #include "vtkWallTraction.h"
 
+#include "WallLoadsColumns.h"
+#include "WallLoadsDefaults.h"
 #include "WallLoadsPipeline.h"
 #include "wallloads/CompensatedSum.h"
 #include "wallloads/FaceGeometry.h"
@@ -30,6 +32,14 @@
 #include <vector>
 
 vtkStandardNewMacro(vtkWallTraction);
+
+// The automatic choices (WallLoadsDefaults) speak this class's codes.
+static_assert(wallloads::ShearNone == vtkWallTraction::NO_SHEAR &&
+    wallloads::ShearWallShearStress == vtkWallTraction::WALL_SHEAR_STRESS &&
+    wallloads::ShearVelocityGradient == vtkWallTraction::VELOCITY_GRADIENT &&
+    wallloads::OrientationStoredIntoWall == vtkWallTraction::STORED_INTO_WALL &&
+    wallloads::OrientationWallNormalArray == vtkWallTraction::WALL_NORMAL_ARRAY,
+  "WallLoadsDefaults.h codes");
 
 namespace
 {
@@ -365,20 +375,22 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
     return a != nullptr;
   };
   const bool gradient = s.ShearSource == vtkWallTraction::VELOCITY_GRADIENT;
+  // Roles are the panel labels, so that messages point at the right field.
   if (!fetch(s.Pressure, 1, "Pressure", inputs.Pressure) ||
-    !fetch(s.DensityArray, 1, "Density", inputs.Density) ||
+    !fetch(s.DensityArray, 1, "Density Array", inputs.Density) ||
     (s.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS &&
-      !fetch(s.WallShearStress, 3, "Wall shear stress", inputs.Shear)) ||
-    (gradient && !fetch(s.VelocityGradient, 9, "Velocity gradient", inputs.Gradient)) ||
-    (gradient && !fetch(s.ViscosityArray, 1, "Viscosity", inputs.Viscosity)) ||
-    (gradient && !fetch(s.TurbulentViscosity, 1, "Turbulent viscosity", inputs.TurbulentViscosity)))
+      !fetch(s.WallShearStress, 3, "Wall Shear Stress", inputs.Shear)) ||
+    (gradient && !fetch(s.VelocityGradient, 9, "Velocity Gradient", inputs.Gradient)) ||
+    (gradient && !fetch(s.ViscosityArray, 1, "Viscosity Array", inputs.Viscosity)) ||
+    (gradient &&
+      !fetch(s.TurbulentViscosity, 1, "Turbulent Viscosity Array", inputs.TurbulentViscosity)))
   {
     return false;
   }
   if (s.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
   {
     ArraySelection normal{ names::WallNormal, false };
-    if (!fetch(normal, 3, "Wall normal (Orientation = Use Wall Normal array)", inputs.WallNormal))
+    if (!fetch(normal, 3, "Wall Normal (Orientation = Use Wall Normal array)", inputs.WallNormal))
     {
       return false;
     }
@@ -411,7 +423,56 @@ void AddCount(vtkFieldData* fd, const char* name, double value)
   a->SetName(name);
   a->SetNumberOfTuples(1);
   a->SetValue(0, static_cast<vtkIdType>(value));
+  SetUnits(a, columns::UnitOf(name));
   fd->AddArray(a);
+}
+
+void AddFieldValue(vtkFieldData* fd, const char* name, const double* values, int components)
+{
+  SetFieldValue(fd, name, values, components);
+  SetUnits(fd->GetAbstractArray(name), columns::UnitOf(name));
+}
+
+/// Units on the per-face arrays this filter made (never on the input's).
+void AttachFaceUnits(vtkDataSet* out, vtkDataSet* in)
+{
+  for (const columns::NamedUnit& u : columns::FaceArrays)
+  {
+    vtkAbstractArray* a = out->GetCellData()->GetAbstractArray(u.Name);
+    if (a && a != in->GetCellData()->GetAbstractArray(u.Name))
+    {
+      SetUnits(a, u.Unit);
+    }
+  }
+}
+
+/// The warnings and notices of a finished execution, on rank 0.
+void Report(vtkWallTraction* self, const Settings& s, const double* global,
+  const std::vector<std::string>& passed, const std::string& notice)
+{
+  if (ProcessRank() != 0)
+  {
+    return;
+  }
+  std::ostringstream info;
+  info << notice;
+  if (global[11] > 0)
+  {
+    info << static_cast<vtkIdType>(global[11]) << " cells in blocks without 2D cells passed "
+         << "through untouched (volume, lines or points: no wall faces)"
+         << (passed.empty() ? std::string(" on other ranks") : ": " + QuotedList(passed, 12))
+         << ".";
+  }
+  Notice(self, info.str());
+  if (!s.Pressure.Set() && s.ShearSource == vtkWallTraction::NO_SHEAR && global[8] > 0)
+  {
+    vtkWarningWithObjectMacro(self,
+      "Wall Traction has no load source: Pressure is "
+        << (self->GetPressureKind() == vtkWallTraction::NO_PRESSURE ? "off (Pressure Kind None)"
+                                                                     : "None")
+        << " and Shear Source is None, so every traction and force is zero. Choose a Pressure "
+           "array and a Shear Source.");
+  }
 }
 } // namespace
 
@@ -454,6 +515,12 @@ int vtkWallTraction::RequestData(
   s.VelocityGradient = SelectedArray(this, VELOCITY_GRADIENT_ARRAY);
   s.ViscosityArray = SelectedArray(this, VISCOSITY_ARRAY);
   s.TurbulentViscosity = SelectedArray(this, TURBULENT_VISCOSITY_ARRAY);
+  const bool autoPressure =
+    this->PressureKind != NO_PRESSURE && s.Pressure.Name == AutomaticArrayName;
+  if (this->PressureKind == NO_PRESSURE)
+  {
+    s.Pressure = ArraySelection();
+  }
   s.PressurePerUnitDensity = this->PressureKind == PER_UNIT_DENSITY;
   s.ShearPerUnitDensity = this->WallShearStressKind == PER_UNIT_DENSITY;
   s.Kinematic = this->ViscosityKind == PER_UNIT_DENSITY;
@@ -469,29 +536,79 @@ int vtkWallTraction::RequestData(
   const double ln = wallloads::Norm(this->LoadDirection);
   if (!(ln > 0) || !std::isfinite(ln))
   {
-    vtkErrorMacro("LoadDirection must be a non-zero finite vector.");
+    vtkErrorMacro("Load Direction must be a non-zero finite vector.");
     return 0;
   }
   for (int k = 0; k < 3; ++k)
   {
     s.LoadDirection[k] = this->LoadDirection[k] / ln;
   }
+
+  // Which leaves are wall surfaces; the automatic choices look at those.
+  std::vector<Leaf> leaves;
+  std::vector<std::string> regionNames;
+  ListLeaves(input, leaves, regionNames);
+  std::vector<vtkDataSet*> surfaces;
+  double totalCells = 0;
+  for (const Leaf& leaf : leaves)
+  {
+    if (ClassifyLeaf(leaf.Data) == LeafKind::Surface)
+    {
+      surfaces.push_back(leaf.Data);
+    }
+    totalCells += leaf.Data ? static_cast<double>(leaf.Data->GetNumberOfCells()) : 0.0;
+  }
+  std::string notice, autoWarning;
+  {
+    AutomaticChoices choices{ s.Pressure, s.ShearSource, s.WallShearStress, s.VelocityGradient,
+      s.Orientation };
+    ResolveAutomatic(choices, autoPressure, this->ShearSource == AUTOMATIC_SHEAR,
+      this->Orientation == AUTOMATIC_ORIENTATION, surfaces, this->Viscosity, s.Kinematic, notice,
+      autoWarning);
+  }
+  if (!autoWarning.empty() && ProcessRank() == 0)
+  {
+    vtkWarningMacro(<< autoWarning);
+  }
   if (s.ShearSource == WALL_SHEAR_STRESS && !s.WallShearStress.Set())
   {
-    vtkErrorMacro("ShearSource is 'Wall shear stress array' but no WallShearStress array is selected.");
+    vtkErrorMacro("Shear Source is 'Wall shear stress array' but no Wall Shear Stress array is "
+                  "selected.");
     return 0;
   }
   if (s.ShearSource == VELOCITY_GRADIENT && !s.VelocityGradient.Set())
   {
-    vtkErrorMacro("ShearSource is 'Velocity gradient' but no VelocityGradient array is selected.");
+    vtkErrorMacro("Shear Source is 'Velocity gradient' but no Velocity Gradient array is "
+                  "selected.");
     return 0;
   }
 
   // Every leaf, locally: no collectives inside, so ranks holding different
-  // blocks stay in step. One reduction at the end.
+  // blocks stay in step. One reduction at the end. Blocks without 2D cells
+  // (the volume of a whole solver case) pass through untouched.
   Tally tally;
   std::string error;
   bool ok = true;
+  bool aborted = false;
+  double doneCells = 0, surfaceCells = 0, passedCells = 0;
+  std::vector<std::string> passed;
+  auto process = [&](vtkDataSet* in, vtkDataSet* out, const std::string& name) {
+    const double cells = static_cast<double>(in->GetNumberOfCells());
+    if (ClassifyLeaf(in) == LeafKind::NoFaces)
+    {
+      passed.push_back(name.empty() ? std::string(in->GetClassName()) : name);
+      passedCells += cells;
+    }
+    else
+    {
+      surfaceCells += cells;
+      ok = ProcessLeaf(s, in, out, name, tally, error);
+      AttachFaceUnits(out, in);
+    }
+    doneCells += cells;
+    this->UpdateProgress(totalCells > 0 ? doneCells / totalCells : 1.0);
+  };
+  this->UpdateProgress(0.0);
   if (auto* inTree = vtkDataObjectTree::SafeDownCast(input))
   {
     auto* outTree = vtkDataObjectTree::SafeDownCast(output);
@@ -507,19 +624,23 @@ int vtkWallTraction::RequestData(
       {
         continue;
       }
+      if (this->GetAbortExecute())
+      {
+        aborted = true;
+        break;
+      }
       vtkSmartPointer<vtkDataSet> copy;
       copy.TakeReference(leaf->NewInstance());
       copy->ShallowCopy(leaf);
       outTree->SetDataSet(it, copy);
-      const std::string name = LeafName(it);
-      ok = ProcessLeaf(s, leaf, copy, name, tally, error);
+      process(leaf, copy, LeafName(it));
     }
   }
   else if (auto* ds = vtkDataSet::SafeDownCast(input))
   {
     auto* out = vtkDataSet::SafeDownCast(output);
     out->ShallowCopy(ds);
-    ok = ProcessLeaf(s, ds, out, std::string(), tally, error);
+    process(ds, out, std::string());
   }
   else
   {
@@ -527,20 +648,46 @@ int vtkWallTraction::RequestData(
     ok = false;
   }
 
-  double global[9] = { ok ? 0.0 : 1.0, tally.WettedArea.Sum, tally.WettedArea.Carry,
+  double global[12] = { ok ? 0.0 : 1.0, tally.WettedArea.Sum, tally.WettedArea.Carry,
     tally.NonSurface, tally.Degenerate, tally.NonFinite, tally.Inconsistent, tally.OpenEdges,
-    tally.Faces };
-  GlobalSum(global, 9);
+    tally.Faces, aborted ? 1.0 : 0.0, surfaceCells, passedCells };
+  GlobalSum(global, 12);
   if (global[0] > 0)
   {
     ReportAgreedFailure(this, ok ? std::string() : error);
     output->Initialize();
     return 0;
   }
+  if (global[9] > 0)
+  {
+    // Stopped on request (all ranks stop together): nothing partial is
+    // passed on as a result.
+    output->Initialize();
+    return 1;
+  }
+  if (global[10] == 0 && global[11] > 0)
+  {
+    if (ProcessRank() == 0)
+    {
+      vtkErrorMacro("Wall Traction needs wall faces (2D cells), but its input holds only "
+        << static_cast<vtkIdType>(global[11]) << " volume (or line and point) cells"
+        << (passed.empty() ? std::string() : " in " + QuotedList(passed, 12))
+        << ". For a fluid volume, use Shear Projection (it finds the wall faces and their "
+           "shear stress) and feed its output to Wall Traction, or extract the wall patches "
+           "first (Extract Block, or Extract Surface).");
+    }
+    output->Initialize();
+    return 0;
+  }
 
   vtkFieldData* fd = output->GetFieldData();
   const double wetted = global[1] + global[2];
-  SetFieldValue(fd, names::WettedArea, &wetted, 1);
+  AddFieldValue(fd, names::WettedArea, &wetted, 1);
+  const double speed = this->ReferenceSpeed;
+  AddFieldValue(fd, "Reference Density", &s.Density, 1);
+  AddFieldValue(fd, "Reference Speed", &speed, 1);
+  AddFieldValue(fd, "Dynamic Pressure", &s.DynamicPressure, 1);
+  AddFieldValue(fd, "Load Direction", s.LoadDirection, 3);
   AddCount(fd, names::SkippedNonSurfaceCells, global[3]);
   AddCount(fd, names::SkippedDegenerateFaces, global[4]);
   AddCount(fd, names::SkippedNonFiniteFaces, global[5]);
@@ -549,6 +696,8 @@ int vtkWallTraction::RequestData(
     AddCount(fd, names::InconsistentlyOrientedFaces, global[6]);
     AddCount(fd, names::OpenBoundaryEdges, global[7]);
   }
+  this->UpdateProgress(1.0);
+  Report(this, s, global, passed, notice);
 
   if (ProcessRank() == 0)
   {
@@ -588,6 +737,12 @@ int vtkWallTraction::RequestData(
     }
   }
   return 1;
+}
+
+//------------------------------------------------------------------------------
+const char* vtkWallTraction::GetArrayUnit(const char* name)
+{
+  return wallloads::columns::UnitOf(name);
 }
 
 //------------------------------------------------------------------------------

@@ -55,8 +55,35 @@
  * Composite inputs are handled whole, so ranks holding different blocks
  * take part in the same collectives. The input is never modified.
  *
+ * Composite inputs may hold blocks without 2D cells (the volume of a solver
+ * case, or lines and points): they pass through untouched and are named in
+ * one information message. An input with volume cells and no wall face at
+ * all is an error that points to Shear Projection.
+ *
+ * Automatic choices (the ParaView proxy's defaults; the C++ defaults are
+ * unset, i.e. no pressure and ShearSource NO_SHEAR): the pressure array name
+ * "Automatic" picks the pressure among the 1-component float/double arrays
+ * (wallloads::ChoosePressure: names with 'pressure' first, cell data before
+ * point data, never integer arrays); ShearSource AUTOMATIC_SHEAR takes a
+ * 3-component array named with 'shear' as the wall shear stress, else a
+ * 9-component one named with 'grad' as the velocity gradient, else none.
+ * Orientation AUTOMATIC_ORIENTATION follows a 3-component `Wall Normal` cell
+ * array (Shear Projection's, from the adjacent fluid cell) when every
+ * surface block holds one, and flips the stored order otherwise.
+ * The choices are agreed across MPI ranks and reported in an information
+ * message; when no load source is left a warning says the loads are zero.
+ *
+ * Field data also records the reference state that Load Integration takes
+ * by default: `Reference Density` (Density), `Reference Speed`, `Dynamic
+ * Pressure` and `Load Direction` (unit). Units are attached to every output
+ * array (vtkDataArray::UNITS_LABEL(), from WallLoadsColumns.h).
+ *
+ * Progress is reported per block and the filter stops between blocks when
+ * asked to abort (all ranks agree; no output then).
+ *
  * Errors (no output): a selected array missing (the message lists the arrays
- * that exist) or of the wrong width; a zero LoadDirection.
+ * that exist) or of the wrong width; a zero Load Direction. Messages use the
+ * panel labels (Wall Shear Stress, Load Direction, ...).
  */
 #ifndef vtkWallTraction_h
 #define vtkWallTraction_h
@@ -86,22 +113,27 @@ public:
     STATIC = 0,           ///< Pa (pressure, stress) or Pa s (viscosity: dynamic)
     PER_UNIT_DENSITY = 1  ///< m^2/s^2 (pressure, stress) or m^2/s (viscosity: kinematic)
   };
+  /// PressureKind beyond STATIC and PER_UNIT_DENSITY: no pressure load.
+  static constexpr int NO_PRESSURE = 2;
   enum ShearSources
   {
     NO_SHEAR = 0,
     WALL_SHEAR_STRESS = 1,
-    VELOCITY_GRADIENT = 2
+    VELOCITY_GRADIENT = 2,
+    AUTOMATIC_SHEAR = 3 ///< a wall shear stress array, else a velocity gradient, else none
   };
   enum Orientations
   {
     STORED_INTO_WALL = 0,  ///< stored order points out of the fluid: flip (default)
     STORED_INTO_FLUID = 1, ///< stored order points into the fluid: keep
-    WALL_NORMAL_ARRAY = 2  ///< agree with the `Wall Normal` cell array
+    WALL_NORMAL_ARRAY = 2, ///< agree with the `Wall Normal` cell array
+    AUTOMATIC_ORIENTATION = 3 ///< WALL_NORMAL_ARRAY when every surface block has one, else STORED_INTO_WALL
   };
 
   ///@{
-  /// Pressure kind: STATIC (Pa, default) or PER_UNIT_DENSITY (m^2/s^2, times density).
-  vtkSetClampMacro(PressureKind, int, STATIC, PER_UNIT_DENSITY);
+  /// Pressure kind: STATIC (Pa, default), PER_UNIT_DENSITY (m^2/s^2, times
+  /// density) or NO_PRESSURE (no pressure load, whatever array is selected).
+  vtkSetClampMacro(PressureKind, int, STATIC, NO_PRESSURE);
   vtkGetMacro(PressureKind, int);
   ///@}
 
@@ -120,8 +152,9 @@ public:
   ///@}
 
   ///@{
-  /// Viscous source: NO_SHEAR (default), WALL_SHEAR_STRESS or VELOCITY_GRADIENT.
-  vtkSetClampMacro(ShearSource, int, NO_SHEAR, VELOCITY_GRADIENT);
+  /// Viscous source: NO_SHEAR (default), WALL_SHEAR_STRESS, VELOCITY_GRADIENT
+  /// or AUTOMATIC_SHEAR (the ParaView proxy's default).
+  vtkSetClampMacro(ShearSource, int, NO_SHEAR, AUTOMATIC_SHEAR);
   vtkGetMacro(ShearSource, int);
   ///@}
 
@@ -153,8 +186,9 @@ public:
   ///@}
 
   ///@{
-  /// Orientation of the stored faces; default STORED_INTO_WALL (flip).
-  vtkSetClampMacro(Orientation, int, STORED_INTO_WALL, WALL_NORMAL_ARRAY);
+  /// Orientation of the stored faces; default STORED_INTO_WALL (flip);
+  /// AUTOMATIC_ORIENTATION is the ParaView proxy's default.
+  vtkSetClampMacro(Orientation, int, STORED_INTO_WALL, AUTOMATIC_ORIENTATION);
   vtkGetMacro(Orientation, int);
   ///@}
 
@@ -189,6 +223,10 @@ public:
   vtkSetMacro(ReferenceSpeed, double);
   vtkGetMacro(ReferenceSpeed, double);
   ///@}
+
+  /// SI unit of a WallLoads output name (array, field value or table
+  /// column; "-" for dimensionless), or nullptr for other names.
+  static const char* GetArrayUnit(const char* name);
 
 protected:
   vtkWallTraction();

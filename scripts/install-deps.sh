@@ -9,6 +9,7 @@ PKGS=(
   libeigen3-dev libgtest-dev libexpat1-dev
   qtbase5-dev qttools5-dev qtxmlpatterns5-dev-tools
   xvfb xauth
+  xdotool imagemagick
   chromium
 )
 

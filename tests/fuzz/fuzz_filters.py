@@ -407,7 +407,9 @@ TOTAL_NAMES = ("Area", "Pressure Force", "Viscous Force", "Force", "Moment")
 
 
 def check_load_integration(outs, msgs):
-    out, table = outs
+    out, table, summary = outs  # port 2: the Load Summary (same rows as the table)
+    check(summary.GetNumberOfRows() == table.GetNumberOfRows(),
+          "Load Summary has %d rows, Load Table %d" % (summary.GetNumberOfRows(), table.GetNumberOfRows()))
     for name in TOTAL_NAMES:
         v = field_value(out, name)
         check(v is not None, "Load Integration: no field '%s'" % name)

@@ -105,14 +105,14 @@ def check_missing_and_wrong_width():
         ("pressure of 3 components", dict(Pressure=["CELLS", "u"]), ["Pressure", "'u'", "3 components", "1 expected"]),
         ("velocity gradient of 3 components",
          dict(Pressure=["CELLS", "p"], ShearSource="Velocity gradient", VelocityGradient=["CELLS", "u"]),
-         ["Velocity gradient", "'u'", "3 components", "9 expected"]),
+         ["Velocity Gradient", "'u'", "3 components", "9 expected"]),
         ("wall shear stress of 9 components",
          dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array", WallShearStress=["CELLS", "G"]),
-         ["shear stress", "'G'", "9 components", "3 expected"]),
+         ["Wall Shear Stress", "'G'", "9 components", "3 expected"]),
         ("density array of 3 components",
          dict(Pressure=["CELLS", "p"], ShearSource="None", PressureKind="Per unit density",
               DensityArray=["CELLS", "u"]),
-         ["Density", "'u'", "3 components", "1 expected"]),
+         ["Density Array", "'u'", "3 components", "1 expected"]),
     ]
     for label, props, parts in cases:
         wt2 = simple.WallTraction(Input=src, Orientation=INTO_FLUID)
@@ -127,9 +127,11 @@ def check_missing_and_wrong_width():
 
     # documented errors of the settings themselves
     for label, props, parts in [
-        ("zero LoadDirection", dict(Pressure=["CELLS", "p"], LoadDirection=[0, 0, 0]), ["LoadDirection"]),
-        ("shear source without an array", dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array"),
-         ["WallShearStress"]),
+        ("zero LoadDirection", dict(Pressure=["CELLS", "p"], LoadDirection=[0, 0, 0]), ["Load Direction"]),
+        # (the panel preselects a 3-component array; a script can still unset it)
+        ("shear source without an array", dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array",
+                                               WallShearStress=["CELLS", "None"]),
+         ["Wall Shear Stress"]),
     ]:
         wt2 = simple.WallTraction(Input=src, Orientation=INTO_FLUID)
         cap2 = Capture(wt2)
@@ -154,7 +156,7 @@ def check_missing_and_wrong_width():
     capl2 = Capture(li2)
     T.output_of(li2, 0)
     expect("parallel drag and lift: error", len(capl2.errors) == 1)
-    contains_all("parallel drag and lift: message", capl2.errors[0], ["DragDirection", "LiftDirection", "parallel"])
+    contains_all("parallel drag and lift: message", capl2.errors[0], ["Drag Direction", "Lift Direction", "parallel"])
     delete(li2, li, wt, src)
 
 

@@ -10,6 +10,7 @@ PKGS=(
   qtbase5-dev qttools5-dev qtxmlpatterns5-dev-tools
   xvfb xauth
   xdotool imagemagick
+  chromium
 )
 
 missing=()

@@ -111,6 +111,18 @@ enum ColumnFlags : unsigned
   X("Inconsistently Oriented Faces", "-", 1, "faces oriented against their connected patch") \
   X("Open Boundary Edges", "-", 1, "edges used by one face only")
 
+/**
+ * Shear Projection's per-face cell arrays on the wall faces:
+ * X(name, unit, components, meaning). Near-Wall Regime is an integer array.
+ */
+#define WALLLOADS_SHEAR_ARRAYS(X)                                                                  \
+  X("Wall Shear Stress", "Pa", 3, "tau_w = mu_eff du_t/dn at the wall, tangential (NaN when not computed)") \
+  X("Wall Normal", "-", 3, "unit normal of the wall face, into the fluid (towards the adjacent cell)") \
+  X("Wall Distance", "m", 1, "distance from the face to its adjacent cell's centre along the normal") \
+  X("Friction Velocity", "m/s", 1, "u_tau = sqrt(|tau_w| / density)") \
+  X("y+", "-", 1, "u_tau times Wall Distance over the kinematic viscosity, at the adjacent cell's centre") \
+  X("Near-Wall Regime", "-", 1, "0 viscous sublayer (y+ < 5), 1 buffer layer, 2 log layer (y+ > 30), -1 not computed")
+
 /// One named output and its unit.
 struct NamedUnit
 {
@@ -154,6 +166,7 @@ inline const NamedUnit RegionColumns[] = { WALLLOADS_REGION_COLUMNS(WALLLOADS_MA
 inline const NamedUnit ReferenceColumns[] = { WALLLOADS_REFERENCE_COLUMNS(WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit FaceArrays[] = { WALLLOADS_FACE_ARRAYS(WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit TractionFields[] = { WALLLOADS_TRACTION_FIELDS(WALLLOADS_MAKE_NAMED_UNIT) };
+inline const NamedUnit ShearArrays[] = { WALLLOADS_SHEAR_ARRAYS(WALLLOADS_MAKE_NAMED_UNIT) };
 
 #undef WALLLOADS_MAKE_LOAD_COLUMN
 #undef WALLLOADS_MAKE_NAMED_UNIT

@@ -19,8 +19,10 @@
 #include "vtkPoints.h"
 #include "vtkPolyData.h"
 #include "vtkUnsignedCharArray.h"
+#include "vtkIdTypeArray.h"
 #include "vtkUnstructuredGrid.h"
 
+#include <algorithm>
 #include <sstream>
 
 namespace wallloads
@@ -188,6 +190,62 @@ bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string&
     }
   }
   return true;
+}
+
+bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error)
+{
+  const vtkIdType numPoints = ds->GetNumberOfPoints();
+  vtkIdType lo = 0, hi = -1;
+  auto scan = [&](vtkDataArray* ids) {
+    if (!ids || ids->GetNumberOfValues() == 0)
+    {
+      return;
+    }
+    double range[2];
+    ids->GetRange(range, 0);
+    lo = std::min(lo, static_cast<vtkIdType>(range[0]));
+    hi = std::max(hi, static_cast<vtkIdType>(range[1]));
+  };
+  if (auto* pd = vtkPolyData::SafeDownCast(ds))
+  {
+    for (vtkCellArray* cells : { pd->GetVerts(), pd->GetLines(), pd->GetPolys(), pd->GetStrips() })
+    {
+      scan(cells ? cells->GetConnectivityArray() : nullptr);
+    }
+  }
+  else if (auto* ug = vtkUnstructuredGrid::SafeDownCast(ds))
+  {
+    scan(ug->GetCells() ? ug->GetCells()->GetConnectivityArray() : nullptr);
+    if (vtkIdTypeArray* faces = ug->GetFaces())
+    {
+      // The face stream holds counts and ids: check the ids only.
+      const vtkIdType n = faces->GetNumberOfValues();
+      const vtkIdType* f = faces->GetPointer(0);
+      for (vtkIdType i = 0; i < n;)
+      {
+        const vtkIdType nfaces = f[i++];
+        for (vtkIdType k = 0; k < nfaces && i < n; ++k)
+        {
+          const vtkIdType m = f[i++];
+          for (vtkIdType j = 0; j < m && i < n; ++j, ++i)
+          {
+            lo = std::min(lo, f[i]);
+            hi = std::max(hi, f[i]);
+          }
+        }
+      }
+    }
+  }
+  if (lo >= 0 && hi < numPoints)
+  {
+    return true;
+  }
+  std::ostringstream os;
+  os << "Cells" << (blockName.empty() ? std::string() : " of block '" + blockName + "'")
+     << " refer to point " << (lo < 0 ? lo : hi) << ", but there are " << numPoints
+     << " points (ids 0 to " << numPoints - 1 << ").";
+  error = os.str();
+  return false;
 }
 
 ArraySelection SelectedArray(vtkAlgorithm* alg, int index)

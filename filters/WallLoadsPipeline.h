@@ -136,6 +136,14 @@ vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int w
  */
 bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string& error);
 
+/**
+ * Every point id of the cells (polydata and unstructured grid connectivity,
+ * polyhedron face streams) must name a point of the dataset: VTK reads them
+ * unchecked. False with `error` set (the block, the largest id, the point
+ * count) otherwise. Other dataset kinds have implicit connectivity.
+ */
+bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error);
+
 /// "cell arrays: a, b; point arrays: c" for error messages.
 std::string DescribeArrays(vtkDataSet* ds);
 

@@ -1,42 +1,38 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #include "vtkShearProjection.h"
 
+#include "WallAdjacency.h"
+#include "WallLoadsColumns.h"
+#include "WallLoadsDefaults.h"
 #include "WallLoadsPipeline.h"
-#include "wallloads/FaceGeometry.h"
-#include "wallloads/LeastSquaresGradient.h"
-#include "wallloads/NearWallShear.h"
-#include "wallloads/Traction.h"
-#include "wallloads/WallLaw.h"
+#include "WallShearFaces.h"
 
-#include "vtkCell.h"
 #include "vtkCellData.h"
+#include "vtkDataSetAttributes.h"
+#include "vtkDoubleArray.h"
 #include "vtkCellTypes.h"
 #include "vtkCompositeDataSet.h"
+#include "vtkDataAssembly.h"
+#include "vtkDataAssemblyUtilities.h"
 #include "vtkDataObjectTree.h"
 #include "vtkDataObjectTreeIterator.h"
-#include "vtkDataSetSurfaceFilter.h"
-#include "vtkDoubleArray.h"
-#include "vtkGenericCell.h"
 #include "vtkIdList.h"
-#include "vtkIdTypeArray.h"
 #include "vtkInformation.h"
 #include "vtkInformationVector.h"
 #include "vtkIntArray.h"
-#include "vtkMath.h"
 #include "vtkMultiBlockDataSet.h"
-#include "vtkNew.h"
 #include "vtkObjectFactory.h"
 #include "vtkPointData.h"
 #include "vtkPointSet.h"
 #include "vtkPoints.h"
 #include "vtkPolyData.h"
 #include "vtkSmartPointer.h"
-#include "vtkStaticPointLocator.h"
 #include "vtkUnstructuredGrid.h"
 
-#include <cmath>
 #include <algorithm>
+#include <cmath>
 #include <limits>
+#include <set>
 #include <sstream>
 #include <vector>
 
@@ -45,167 +41,31 @@ vtkStandardNewMacro(vtkShearProjection);
 namespace
 {
 using namespace wallloads;
-const double NaN = std::numeric_limits<double>::quiet_NaN();
 
-/// The boundary of one volume block, indexed for matching.
-struct Boundary
+/// Faces per chunk of the face loop: progress and abort are checked between chunks.
+constexpr vtkIdType ChunkFaces = 32768;
+
+/// Whether a dataset holds a 3-D cell.
+bool HasVolumeCells(vtkDataSet* ds)
 {
-  // Identity of the mesh the entry was built from.
-  const void* Points = nullptr;
-  vtkMTimeType PointsTime = 0;
-  const void* Cells = nullptr;
-  vtkMTimeType CellsTime = 0;
-  vtkIdType NumPoints = -1, NumCells = -1;
-
-  vtkSmartPointer<vtkPolyData> Faces;          ///< boundary faces, with vtkOriginalCellIds
-  vtkSmartPointer<vtkStaticPointLocator> Near; ///< on the face centroids
-  std::vector<vtkIdType> Cell;                 ///< adjacent cell of each boundary face
-  vtkSmartPointer<vtkDataSet> Mesh;            ///< private copy for neighbour queries
-
-  double Bounds[6] = { 0, 0, 0, 0, 0, 0 };
-
-  /// What identifies a mesh: its points and cells objects (explicit meshes)
-  /// and their modification times, or, for implicit ones (image data,
-  /// structured grids), counts and bounds. Arrays do not enter.
-  struct Key
+  if (!ds)
   {
-    const void* Points;
-    vtkMTimeType PointsTime;
-    const void* Cells;
-    vtkMTimeType CellsTime;
-  };
-  static Key KeyOf(vtkDataSet* ds)
-  {
-    auto* ps = vtkPointSet::SafeDownCast(ds);
-    auto* ug = vtkUnstructuredGrid::SafeDownCast(ds);
-    Key k{ nullptr, 0, nullptr, 0 };
-    if (ps && ps->GetPoints())
-    {
-      k.Points = ps->GetPoints()->GetData();
-      k.PointsTime = ps->GetPoints()->GetMTime();
-    }
-    if (ug && ug->GetCells())
-    {
-      k.Cells = ug->GetCells();
-      k.CellsTime = ug->GetCells()->GetMTime();
-    }
-    return k;
+    return false;
   }
-
-  bool Matches(vtkDataSet* ds) const
+  if (auto* ug = vtkUnstructuredGrid::SafeDownCast(ds))
   {
-    const Key k = KeyOf(ds);
-    double bounds[6];
-    ds->GetBounds(bounds);
-    bool same = k.Points == this->Points && k.PointsTime == this->PointsTime &&
-      k.Cells == this->Cells && k.CellsTime == this->CellsTime &&
-      ds->GetNumberOfPoints() == this->NumPoints && ds->GetNumberOfCells() == this->NumCells;
-    for (int i = 0; i < 6 && same; ++i)
+    const vtkIdType n = ug->GetNumberOfCells();
+    const unsigned char* types = n > 0 ? ug->GetCellTypesArray()->GetPointer(0) : nullptr;
+    for (vtkIdType c = 0; c < n; ++c)
     {
-      same = bounds[i] == this->Bounds[i];
-    }
-    return same;
-  }
-
-  void Build(vtkDataSet* ds)
-  {
-    const Key k = KeyOf(ds);
-    this->Points = k.Points;
-    this->PointsTime = k.PointsTime;
-    this->Cells = k.Cells;
-    this->CellsTime = k.CellsTime;
-    this->NumPoints = ds->GetNumberOfPoints();
-    this->NumCells = ds->GetNumberOfCells();
-    ds->GetBounds(this->Bounds);
-
-    // Geometry only: the extraction must not carry the volume's arrays.
-    this->Mesh.TakeReference(ds->NewInstance());
-    this->Mesh->CopyStructure(ds);
-    auto surface = vtkSmartPointer<vtkDataSetSurfaceFilter>::New();
-    surface->SetInputData(this->Mesh);
-    surface->PassThroughCellIdsOn();
-    surface->SetOriginalCellIdsName("vtkOriginalCellIds");
-    surface->Update();
-    this->Faces = surface->GetOutput();
-    vtkDataArray* ids = this->Faces->GetCellData()->GetArray("vtkOriginalCellIds");
-    const vtkIdType n = this->Faces->GetNumberOfCells();
-    this->Cell.assign(static_cast<std::size_t>(n), -1);
-    auto centroids = vtkSmartPointer<vtkPoints>::New();
-    centroids->SetDataTypeToDouble();
-    centroids->SetNumberOfPoints(n);
-    auto list = vtkSmartPointer<vtkIdList>::New();
-    std::vector<double> xyz;
-    std::vector<vtkIdType> local;
-    for (vtkIdType f = 0; f < n; ++f)
-    {
-      this->Cell[f] = ids ? static_cast<vtkIdType>(ids->GetComponent(f, 0)) : -1;
-      this->Faces->GetCellPoints(f, list);
-      xyz.resize(3 * list->GetNumberOfIds());
-      local.resize(list->GetNumberOfIds());
-      for (vtkIdType k = 0; k < list->GetNumberOfIds(); ++k)
+      if (vtkCellTypes::GetDimension(types[c]) == 3)
       {
-        this->Faces->GetPoint(list->GetId(k), &xyz[3 * k]);
-        local[k] = k;
-      }
-      FaceFrame<double> frame;
-      if (ComputeFaceFrame<double>(xyz.data(), local.data(), static_cast<int>(local.size()), frame) ==
-        FaceStatus::Ok)
-      {
-        centroids->SetPoint(f, frame.Centroid);
-      }
-      else
-      {
-        centroids->SetPoint(f, NaN, NaN, NaN);
+        return true;
       }
     }
-    auto cloud = vtkSmartPointer<vtkPolyData>::New();
-    cloud->SetPoints(centroids);
-    this->Near = vtkSmartPointer<vtkStaticPointLocator>::New();
-    this->Near->SetDataSet(cloud);
-    this->Near->BuildLocator();
-    if (auto* grid = vtkUnstructuredGrid::SafeDownCast(this->Mesh))
-    {
-      grid->BuildLinks(); // once, for the face neighbours of wall cells
-    }
+    return false;
   }
-};
-} // namespace
-
-struct vtkShearProjection::AdjacencyCache
-{
-  std::vector<Boundary> Blocks;
-};
-
-namespace
-{
-struct VolumeBlock
-{
-  vtkDataSet* Data = nullptr;
-  std::string Name;
-  Boundary* Index = nullptr;
-  ArrayView Velocity, Gradient, Viscosity, TurbulentViscosity, Density;
-};
-
-struct Settings
-{
-  ArraySelection Velocity, WallVelocity, Gradient, Viscosity, TurbulentViscosity, Density;
-  int Method = 0;
-  double ViscosityValue = 1.8e-5;
-  bool Kinematic = false;
-  double DensityValue = 1;
-  double Kappa = 0.41, B = 5.0;
-};
-
-struct Counts
-{
-  double Faces = 0, Unmatched = 0, OffWall = 0, FellBack = 0, Failed = 0;
-  double NotFaces = 0, Degenerate = 0, Interfaces = 0;
-};
-
-
-bool IsVolume(vtkDataSet* ds)
-{
-  for (vtkIdType c = 0; ds && c < ds->GetNumberOfCells(); ++c)
+  for (vtkIdType c = 0; c < ds->GetNumberOfCells(); ++c)
   {
     if (vtkCellTypes::GetDimension(static_cast<unsigned char>(ds->GetCellType(c))) == 3)
     {
@@ -215,300 +75,528 @@ bool IsVolume(vtkDataSet* ds)
   return false;
 }
 
-
-/// Value of a volume array at a cell: the cell value or the mean over its points.
-void CellValue(const ArrayView& a, vtkIdList* cellPoints, vtkIdType cell, int comps, double* out)
+/// The first 3-component numeric array of the first volume block that has
+/// one, cell data before point data; unset if none.
+ArraySelection FirstVector(const std::vector<vtkDataSet*>& volume)
 {
-  for (int k = 0; k < comps; ++k)
+  ArraySelection sel;
+  for (vtkDataSet* ds : volume)
   {
-    if (!a.OnPoints)
+    for (int onPoints = 0; onPoints < 2; ++onPoints)
     {
-      out[k] = a.Get(cell, k);
+      vtkDataSetAttributes* attrs = onPoints
+        ? static_cast<vtkDataSetAttributes*>(ds->GetPointData())
+        : static_cast<vtkDataSetAttributes*>(ds->GetCellData());
+      for (int i = 0; i < attrs->GetNumberOfArrays(); ++i)
+      {
+        vtkDataArray* a = attrs->GetArray(i);
+        if (a && a->GetName() && a->GetNumberOfComponents() == 3 &&
+          std::string(a->GetName()) != vtkDataSetAttributes::GhostArrayName())
+        {
+          sel.Name = a->GetName();
+          sel.OnPoints = onPoints == 1;
+          return sel;
+        }
+      }
+    }
+  }
+  return sel;
+}
+
+/// Whether a volume block has an array of this name (cell or point data).
+bool HasArrayNamed(const std::vector<vtkDataSet*>& volume, const std::string& name)
+{
+  for (vtkDataSet* ds : volume)
+  {
+    if (ds->GetCellData()->GetAbstractArray(name.c_str()) ||
+      ds->GetPointData()->GetAbstractArray(name.c_str()))
+    {
+      return true;
+    }
+  }
+  return false;
+}
+
+/// Absolute rounding of a dataset's coordinates: eps of the point type times the largest one.
+double CoordinateRounding(vtkDataSet* ds)
+{
+  double bounds[6];
+  ds->GetBounds(bounds);
+  double reach = 0;
+  for (double b : bounds)
+  {
+    reach = std::max(reach, std::isfinite(b) ? std::abs(b) : 0.0);
+  }
+  auto* ps = vtkPointSet::SafeDownCast(ds);
+  const bool isFloat = ps && ps->GetPoints() && ps->GetPoints()->GetDataType() == VTK_FLOAT;
+  return (isFloat ? std::numeric_limits<float>::epsilon() : std::numeric_limits<double>::epsilon()) *
+    reach;
+}
+
+/// A wall dataset of the output.
+struct WallBlock
+{
+  vtkSmartPointer<vtkDataSet> Out;
+  std::string Name;
+  int BoundaryOf = -1; ///< volume block whose boundary it is, or -1
+  ArrayView WallVelocity;
+};
+
+/// The leaves of a composite input chosen by data-assembly selectors, in
+/// flat (composite index) order, with their names.
+void SelectedLeaves(vtkDataObject* input, const std::vector<std::string>& selectors,
+  const char* assemblyName, std::vector<std::pair<vtkDataSet*, std::string>>& leaves,
+  std::vector<unsigned int>& ids)
+{
+  auto* cds = vtkCompositeDataSet::SafeDownCast(input);
+  if (!cds)
+  {
+    return;
+  }
+  vtkSmartPointer<vtkDataAssembly> assembly;
+  const std::string name = assemblyName ? assemblyName : "";
+  if (!name.empty() && name != vtkDataAssemblyUtilities::HierarchyName())
+  {
+    assembly = vtkDataAssemblyUtilities::GetDataAssembly(name.c_str(), cds);
+  }
+  if (!assembly)
+  {
+    assembly = vtkSmartPointer<vtkDataAssembly>::New();
+    vtkDataAssemblyUtilities::GenerateHierarchy(cds, assembly);
+  }
+  ids = vtkDataAssemblyUtilities::GetSelectedCompositeIds(selectors, assembly, nullptr, true);
+  const std::set<unsigned int> chosen(ids.begin(), ids.end());
+  auto* tree = vtkDataObjectTree::SafeDownCast(input);
+  if (!tree)
+  {
+    return;
+  }
+  vtkSmartPointer<vtkDataObjectTreeIterator> it;
+  it.TakeReference(tree->NewTreeIterator());
+  it->SkipEmptyNodesOff();
+  it->VisitOnlyLeavesOn();
+  it->TraverseSubTreeOn();
+  for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
+  {
+    if (chosen.count(it->GetCurrentFlatIndex()))
+    {
+      leaves.emplace_back(vtkDataSet::SafeDownCast(it->GetCurrentDataObject()), LeafName(it));
+    }
+  }
+}
+
+/// The boundary faces of a volume block as an output dataset: the cached
+/// geometry with the volume's point data and each face's adjacent-cell data.
+vtkSmartPointer<vtkPolyData> BoundaryOutput(const VolumeBlock& vb)
+{
+  const WallAdjacency::Block& adj = *vb.Adjacency;
+  auto pd = vtkSmartPointer<vtkPolyData>::New();
+  pd->ShallowCopy(adj.Surface);
+  const vtkIdType np = static_cast<vtkIdType>(adj.SurfacePointIds.size());
+  const vtkIdType nf = adj.NumberOfFaces();
+  auto from = vtkSmartPointer<vtkIdList>::New();
+  from->SetNumberOfIds(np);
+  std::copy(adj.SurfacePointIds.begin(), adj.SurfacePointIds.end(), from->GetPointer(0));
+  pd->GetPointData()->CopyAllocate(vb.Data->GetPointData(), np);
+  pd->GetPointData()->CopyData(vb.Data->GetPointData(), from.Get(), vtkIdType(0));
+  from->SetNumberOfIds(nf);
+  for (vtkIdType f = 0; f < nf; ++f)
+  {
+    from->SetId(f, adj.WallCellId[adj.FaceWallCell[f]]);
+  }
+  pd->GetCellData()->CopyAllocate(vb.Data->GetCellData(), nf);
+  pd->GetCellData()->CopyData(vb.Data->GetCellData(), from.Get(), vtkIdType(0));
+  return pd;
+}
+} // namespace
+
+namespace
+{
+/// What one execution gathers before the face loop. Every check only
+/// records the first problem in Error; the ranks agree on the outcome with
+/// one collective before any of them fails.
+struct Execution
+{
+  ShearSettings S;
+  std::string Error;
+  std::vector<Leaf> Leaves;
+  std::vector<vtkDataSet*> VolumeLeaves;
+  std::vector<std::string> VolumeNames;
+  std::set<vtkDataSet*> PatchLeaves;
+  double SurfaceCells = 0;
+  std::vector<VolumeBlock> Volume;
+  std::vector<WallBlock> Walls;
+  std::vector<std::string> PatchNames;
+
+  void Fail(const std::string& message)
+  {
+    if (this->Error.empty())
+    {
+      this->Error = message;
+    }
+  }
+};
+
+/// Sort the input's leaves into volume blocks and patches, after checking
+/// each (before VTK is asked anything about its cells: a short ghost array
+/// crashes VTK's structured cell types); pick the default velocity; fetch
+/// and check the volume arrays.
+void CollectVolume(Execution& x, vtkDataObject* volumeIn)
+{
+  std::vector<std::string> regionNames; // not used: volume blocks are not regions
+  ListLeaves(volumeIn, x.Leaves, regionNames);
+  for (const Leaf& leaf : x.Leaves)
+  {
+    if (!leaf.Data)
+    {
       continue;
     }
-    double sum = 0;
-    for (vtkIdType j = 0; j < cellPoints->GetNumberOfIds(); ++j)
+    std::string leafError;
+    if (!CheckGhostArrays(leaf.Data, leaf.Name, leafError) ||
+      !CheckPointIds(leaf.Data, leaf.Name, leafError))
     {
-      sum += a.Get(cellPoints->GetId(j), k);
+      x.Fail(leafError);
+      continue;
     }
-    out[k] = sum / static_cast<double>(cellPoints->GetNumberOfIds());
-  }
-}
-
-void CellCentre(vtkDataSet* ds, vtkIdList* cellPoints, double x[3])
-{
-  x[0] = x[1] = x[2] = 0;
-  for (vtkIdType j = 0; j < cellPoints->GetNumberOfIds(); ++j)
-  {
-    double p[3];
-    ds->GetPoint(cellPoints->GetId(j), p);
-    for (int k = 0; k < 3; ++k)
+    if (HasVolumeCells(leaf.Data))
     {
-      x[k] += p[k];
+      x.VolumeLeaves.push_back(leaf.Data);
+      x.VolumeNames.push_back(leaf.Name);
+    }
+    else
+    {
+      x.PatchLeaves.insert(leaf.Data);
+      x.SurfaceCells += static_cast<double>(leaf.Data->GetNumberOfCells());
     }
   }
-  for (int k = 0; k < 3; ++k)
+  ShearSettings& s = x.S;
+  // ParaView fills the name with "0" when the proxy is created before its
+  // input has data (its array list is empty then): not an array, unset.
+  if (s.Velocity.Name == "0" && !HasArrayNamed(x.VolumeLeaves, s.Velocity.Name))
   {
-    x[k] /= static_cast<double>(cellPoints->GetNumberOfIds());
+    s.Velocity = ArraySelection();
   }
-}
-
-/// One wall face: its frame and the adjacent cell (block, id) or none.
-struct WallFace
-{
-  FaceFrame<double> Frame;
-  bool Valid = false;
-  bool NotFace = false; ///< a vertex, line or 3D cell among the walls
-  int Block = -1;
-  vtkIdType Cell = -1;
-  double WallVelocity[3] = { 0, 0, 0 };
-  /// Gradient of the wall velocity in the face plane (row-major, du_i/dx_j),
-  /// from corner values; zero without a point-data wall velocity.
-  double WallGradient[9] = { 0, 0, 0, 0, 0, 0, 0, 0, 0 };
-};
-
-/// Work objects reused from face to face (no allocation per face).
-struct Scratch
-{
-  vtkNew<vtkGenericCell> Cell;
-  vtkNew<vtkIdList> CellPoints;
-  vtkNew<vtkIdList> Neighbours;
-  vtkNew<vtkIdList> NeighbourPoints;
-  std::vector<double> Xk, Uk, Ds, Us;
-};
-
-/// Shear and wall quantities for one face.
-void Reconstruct(const Settings& s, VolumeBlock& vb, const WallFace& face, Scratch& work,
-  double out[9], int& regime, Counts& counts)
-{
-  for (int k = 0; k < 9; ++k)
+  if (!s.Velocity.Set())
   {
-    out[k] = NaN;
-  }
-  regime = UnknownRegime;
-  vtkDataSet* mesh = vb.Index->Mesh;
-  vtkIdList* cellPoints = work.CellPoints;
-  mesh->GetCellPoints(face.Cell, cellPoints);
-  double xP[3], uP[3];
-  CellCentre(mesh, cellPoints, xP);
-  CellValue(vb.Velocity, cellPoints, face.Cell, 3, uP);
-  const double* xf = face.Frame.Centroid;
-  double n[3] = { face.Frame.Normal[0], face.Frame.Normal[1], face.Frame.Normal[2] };
-  const double toP[3] = { xP[0] - xf[0], xP[1] - xf[1], xP[2] - xf[2] };
-  double d = Dot(toP, n);
-  if (d < 0)
-  {
-    for (double& v : n)
+    // The default: the first 3-component array of the volume, cell data
+    // first (what the panel preselects; a script may create the filter
+    // before its input has data, when nothing can be preselected).
+    s.Velocity = FirstVector(x.VolumeLeaves);
+    if (!s.Velocity.Set() && !x.VolumeLeaves.empty())
     {
-      v = -v;
+      x.Fail("Shear Projection needs a Velocity array (3 components) on the volume; the volume "
+             "has none: " +
+        DescribeArrays(x.VolumeLeaves.front()) + ".");
     }
-    d = -d;
   }
-  if (!(d > 0) || !std::isfinite(d))
+  for (std::size_t i = 0; i < x.VolumeLeaves.size(); ++i)
   {
-    ++counts.OffWall;
-    return;
-  }
-  // Geometry is known even if the reconstruction below fails.
-  for (int k = 0; k < 3; ++k)
-  {
-    out[3 + k] = n[k];
-  }
-  out[6] = d;
-  double rho = s.DensityValue;
-  if (vb.Density.Valid())
-  {
-    CellValue(vb.Density, cellPoints, face.Cell, 1, &rho);
-  }
-  double mu = s.ViscosityValue;
-  if (vb.Viscosity.Valid())
-  {
-    CellValue(vb.Viscosity, cellPoints, face.Cell, 1, &mu);
-  }
-  double mut = 0;
-  if (vb.TurbulentViscosity.Valid())
-  {
-    CellValue(vb.TurbulentViscosity, cellPoints, face.Cell, 1, &mut);
-  }
-  const double factor = s.Kinematic ? rho : 1.0;
-  const double muMolecular = factor * mu;
-  const double muEff = factor * (mu + mut);
-  const double nu = muMolecular / rho;
-  const double* uW = face.WallVelocity;
-
-  // Face neighbours of the adjacent cell (gradient and wall fit).
-  std::vector<double>& xk = work.Xk;
-  std::vector<double>& uk = work.Uk;
-  xk.clear();
-  uk.clear();
-  auto gather = [&]() {
-    vtkGenericCell* scratch = work.Cell;
-    mesh->GetCell(face.Cell, scratch);
-    vtkIdList* neighbours = work.Neighbours;
-    vtkIdList* nbPoints = work.NeighbourPoints;
-    for (int f = 0; f < scratch->GetNumberOfFaces(); ++f)
-    {
-      vtkCell* cf = scratch->GetFace(f);
-      mesh->GetCellNeighbors(face.Cell, cf->GetPointIds(), neighbours);
-      for (vtkIdType j = 0; j < neighbours->GetNumberOfIds(); ++j)
+    VolumeBlock vb;
+    vb.Data = x.VolumeLeaves[i];
+    vb.Name = x.VolumeNames[i];
+    vb.Rounding = CoordinateRounding(vb.Data);
+    auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
+      if (!sel.Set())
       {
-        const vtkIdType nb = neighbours->GetId(j);
-        mesh->GetCellPoints(nb, nbPoints);
-        double x[3], u[3];
-        CellCentre(mesh, nbPoints, x);
-        CellValue(vb.Velocity, nbPoints, nb, 3, u);
-        xk.insert(xk.end(), x, x + 3);
-        uk.insert(uk.end(), u, u + 3);
-      }
-    }
-  };
-
-  double tau[3] = { NaN, NaN, NaN };
-  bool alongWall = false; // the method took only the wall-normal derivative
-  switch (s.Method)
-  {
-    case vtkShearProjection::NEAR_WALL_DIFFERENCE:
-      NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
-      alongWall = true;
-      break;
-    case vtkShearProjection::GRADIENT_TENSOR:
-    {
-      double G[9];
-      if (vb.Gradient.Valid())
-      {
-        CellValue(vb.Gradient, cellPoints, face.Cell, 9, G);
-      }
-      else
-      {
-        gather();
-        WallConstraint<double> wall;
-        wall.Point = xf;
-        wall.Value = uW;
-        if (LeastSquaresGradient<double>(xP, uP, xk.data(), uk.data(), nullptr,
-              static_cast<int>(xk.size() / 3), G, &wall) != GradientStatus::Ok)
-        {
-          ++counts.Failed;
-          return;
-        }
-      }
-      GradientWallShear(G, muEff, n, tau);
-      break;
-    }
-    case vtkShearProjection::WALL_FIT:
-    {
-      gather();
-      std::vector<double>& ds = work.Ds;
-      std::vector<double>& us = work.Us;
-      ds.assign(1, d);
-      us.assign(uP, uP + 3);
-      // Only neighbours stacked off the wall: further out (d > 1.2 d_P) and
-      // mostly along the normal. Neighbours beside the cell sample the
-      // profile of another wall position (a developing layer, a curved
-      // wall) at nearly the same distance and would set the curvature.
-      for (std::size_t j = 0; j < xk.size() / 3; ++j)
-      {
-        const double off[3] = { xk[3 * j] - xf[0], xk[3 * j + 1] - xf[1], xk[3 * j + 2] - xf[2] };
-        const double dj = Dot(off, n);
-        double side[3];
-        SplitNormalTangential(off, n, side);
-        if (dj > 1.2 * d && Norm(side) <= 0.5 * dj)
-        {
-          ds.push_back(dj);
-          us.insert(us.end(), &uk[3 * j], &uk[3 * j] + 3);
-        }
-      }
-      const ShearStatus st = WallFitShear<double>(
-        ds.data(), us.data(), nullptr, static_cast<int>(ds.size()), uW, n, muEff, tau);
-      if (st == ShearStatus::Degenerate || st == ShearStatus::SingleSample)
-      {
-        ++counts.FellBack; // no distinct distances: the near-wall difference
-        NearWallDifferenceShear(uP, uW, n, d, muEff, tau);
-      }
-      alongWall = true;
-      break;
-    }
-    case vtkShearProjection::WALL_LAW:
-    {
-      const double du[3] = { uP[0] - uW[0], uP[1] - uW[1], uP[2] - uW[2] };
-      double ut[3];
-      SplitNormalTangential(du, n, ut);
-      const double U = Norm(ut);
-      FrictionVelocityResult<double> r;
-      if (SolveSpaldingFrictionVelocity(U, d, nu, r, s.Kappa, s.B) != WallLawStatus::Ok)
-      {
-        ++counts.Failed;
         return;
       }
-      const double scale = U > 0 ? rho * r.FrictionVelocity * r.FrictionVelocity / U : 0.0;
-      for (int k = 0; k < 3; ++k)
+      std::string arrayError;
+      vtkDataArray* a = FindSelectedArray(vb.Data, sel, comps, role, vb.Name, arrayError);
+      if (!a)
       {
-        tau[k] = scale * ut[k];
+        x.Fail(arrayError);
       }
-      break;
-    }
+      view = MakeArrayView(a, sel.OnPoints);
+    };
+    fetch(s.Velocity, 3, "Velocity", vb.Velocity);
+    fetch(s.Gradient, 9, "Velocity Gradient", vb.Gradient);
+    fetch(s.Viscosity, 1, "Viscosity Array", vb.Viscosity);
+    fetch(s.TurbulentViscosity, 1, "Turbulent Viscosity Array", vb.TurbulentViscosity);
+    fetch(s.Density, 1, "Density Array", vb.Density);
+    x.Volume.push_back(vb);
   }
-  if (alongWall)
+}
+
+/// The Walls input, copied into the output.
+void WallsFromInput(Execution& x, vtkDataObject* wallsIn, vtkDataObject* output)
+{
+  auto* tree = vtkDataObjectTree::SafeDownCast(wallsIn);
+  if (!tree)
   {
-    // The other half of tau n: mu (G^T n)_t, the derivative of the normal
-    // velocity along the wall. At the wall it is the wall velocity's: zero
-    // for stationary and translating walls, half the shear on a spinning
-    // cylinder. Known only where the wall velocity is point data.
-    const double* W = face.WallGradient;
-    double gtn[3];
-    for (int j = 0; j < 3; ++j)
-    {
-      gtn[j] = W[j] * n[0] + W[3 + j] * n[1] + W[6 + j] * n[2];
-    }
-    double along[3];
-    SplitNormalTangential(gtn, n, along);
-    for (int k = 0; k < 3; ++k)
-    {
-      tau[k] += muEff * along[k];
-    }
-  }
-  if (!AllFinite(tau, 3))
-  {
-    ++counts.Failed;
+    WallBlock wb;
+    wb.Out = vtkDataSet::SafeDownCast(output);
+    wb.Out->ShallowCopy(wallsIn);
+    wb.Name = "walls";
+    x.Walls.push_back(wb);
     return;
   }
-  const double utau = std::sqrt(Norm(tau) / rho);
-  const double yplus = d * utau / nu;
-  for (int k = 0; k < 3; ++k)
+  auto* outTree = vtkDataObjectTree::SafeDownCast(output);
+  outTree->CopyStructure(tree);
+  vtkSmartPointer<vtkDataObjectTreeIterator> it;
+  it.TakeReference(tree->NewTreeIterator());
+  it->VisitOnlyLeavesOn();
+  it->TraverseSubTreeOn();
+  for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
   {
-    out[k] = tau[k];
-    out[3 + k] = n[k];
+    auto* leaf = vtkDataSet::SafeDownCast(it->GetCurrentDataObject());
+    if (!leaf)
+    {
+      continue;
+    }
+    WallBlock wb;
+    wb.Out.TakeReference(leaf->NewInstance());
+    wb.Out->ShallowCopy(leaf);
+    outTree->SetDataSet(it, wb.Out);
+    wb.Name = LeafName(it);
+    x.Walls.push_back(wb);
   }
-  out[6] = d;
-  out[7] = utau;
-  out[8] = yplus;
-  regime = NearWallRegime(yplus);
 }
 
-template <typename I, typename P>
-void FaceFrames(vtkDataSet* wall, std::vector<WallFace>& faces)
+/// The patch blocks of the input chosen by Wall Blocks, as output blocks.
+void WallsFromBlocks(Execution& x, vtkDataObject* volumeIn, vtkDataObject* output,
+  const std::vector<std::string>& selectors, const char* assembly)
 {
-  FaceTopology<I> topo;
-  MakeFaceTopology<I>(wall, topo);
-  const PointView pv = MakePointView(wall);
-  const P* pts = static_cast<const P*>(pv.Data);
-  faces.assign(static_cast<std::size_t>(wall->GetNumberOfCells()), WallFace());
-  for (vtkIdType c = 0; c < wall->GetNumberOfCells(); ++c)
+  std::vector<std::pair<vtkDataSet*, std::string>> chosen;
+  std::vector<unsigned int> ids;
+  SelectedLeaves(volumeIn, selectors, assembly, chosen, ids);
+  auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
+  if (!mb || ids.empty())
   {
-    I buffer[4];
-    const I* ids = nullptr;
-    const int n = topo.Corners(c, ids, buffer);
-    faces[c].NotFace = n == 0;
-    faces[c].Valid = n > 0 && pts && ComputeFaceFrame<double>(pts, ids, n, faces[c].Frame) == FaceStatus::Ok;
+    std::ostringstream os;
+    os << "Wall Blocks selects no block of the input (";
+    for (std::size_t i = 0; i < selectors.size(); ++i)
+    {
+      os << (i ? ", " : "") << "'" << selectors[i] << "'";
+    }
+    os << "); pick the wall patches among the input's blocks.";
+    x.Fail(os.str());
+    return;
+  }
+  for (std::size_t i = 0; i < chosen.size(); ++i)
+  {
+    WallBlock wb;
+    vtkDataSet* leaf = chosen[i].first;
+    if (leaf && !x.PatchLeaves.count(leaf))
+    {
+      if (std::find(x.VolumeLeaves.begin(), x.VolumeLeaves.end(), leaf) == x.VolumeLeaves.end())
+      {
+        continue; // failed its checks (already reported)
+      }
+      x.Fail("Wall Blocks selects block '" + chosen[i].second +
+        "', which holds 3-D cells (the volume); select its wall patches instead.");
+    }
+    if (leaf)
+    {
+      wb.Out.TakeReference(leaf->NewInstance());
+      wb.Out->ShallowCopy(leaf);
+    }
+    else
+    {
+      wb.Out = vtkSmartPointer<vtkPolyData>::New(); // held by another rank
+    }
+    wb.Name = chosen[i].second;
+    mb->SetBlock(static_cast<unsigned int>(i), wb.Out);
+    mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
+    x.Walls.push_back(wb);
   }
 }
 
+/// The boundary of every volume block, as output blocks (or the output).
+void WallsFromBoundary(Execution& x, vtkDataObject* output)
+{
+  auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
+  for (std::size_t i = 0; i < x.Volume.size(); ++i)
+  {
+    WallBlock wb;
+    auto pd = BoundaryOutput(x.Volume[i]);
+    wb.Name = x.Volume[i].Name.empty() ? std::string("boundary") : x.Volume[i].Name + " boundary";
+    wb.BoundaryOf = static_cast<int>(i);
+    if (mb)
+    {
+      mb->SetBlock(static_cast<unsigned int>(i), pd);
+      mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
+      wb.Out = pd;
+    }
+    else
+    {
+      vtkPolyData::SafeDownCast(output)->ShallowCopy(pd);
+      wb.Out = vtkDataSet::SafeDownCast(output);
+    }
+    x.Walls.push_back(wb);
+  }
+  for (const Leaf& leaf : x.Leaves)
+  {
+    if (leaf.Data && x.PatchLeaves.count(leaf.Data) && leaf.Data->GetNumberOfCells() > 0)
+    {
+      x.PatchNames.push_back(leaf.Name);
+    }
+  }
+}
+
+/// Check every wall block and its wall velocity (before any rank may fail).
+void CheckWalls(Execution& x)
+{
+  for (WallBlock& wb : x.Walls)
+  {
+    std::string wallError;
+    if (!CheckGhostArrays(wb.Out, wb.Name, wallError) || !CheckPointIds(wb.Out, wb.Name, wallError))
+    {
+      x.Fail(wallError);
+    }
+    else if (x.S.WallVelocity.Set() && wb.Out->GetNumberOfCells() > 0)
+    {
+      vtkDataArray* a =
+        FindSelectedArray(wb.Out, x.S.WallVelocity, 3, "Wall Velocity", wb.Name, wallError);
+      if (!a)
+      {
+        x.Fail(wallError);
+      }
+      wb.WallVelocity = MakeArrayView(a, x.S.WallVelocity.OnPoints);
+    }
+  }
+}
+
+/// The output arrays of one wall dataset, allocated, with their units
+/// (names and units from WallLoadsColumns.h, the list the help shows).
+void AddOutputArrays(vtkDataSet* out)
+{
+  for (const columns::NamedUnit& a : columns::ShearArrays)
+  {
+    vtkSmartPointer<vtkDataArray> array;
+    if (std::string(a.Name) == "Near-Wall Regime")
+    {
+      array = vtkSmartPointer<vtkIntArray>::New();
+    }
+    else
+    {
+      array = vtkSmartPointer<vtkDoubleArray>::New();
+    }
+    array->SetName(a.Name);
+    array->SetNumberOfComponents(a.Components);
+    array->SetNumberOfTuples(out->GetNumberOfCells());
+    SetUnits(array, a.Unit);
+    out->GetCellData()->AddArray(array);
+  }
+}
+
+/// The warnings of one execution, from the counts summed over the ranks
+/// (`global`, with the unsupported cells last) on rank 0; a rank holding
+/// unmatched faces names its blocks.
+void Report(vtkObject* self, const Execution& x, const double* global, const ShearCounts& local,
+  const std::vector<double>& unmatchedPerBlock, bool defaultWalls)
+{
+  auto count = [global](int i) { return static_cast<vtkIdType>(global[i]); };
+  const bool root = ProcessRank() == 0;
+  if (root && defaultWalls)
+  {
+    std::ostringstream os;
+    os << "Shear Projection: no walls chosen, so all " << count(ShearCounts::Faces)
+       << " boundary faces of the volume are taken as walls (outer boundary, inlets and outlets "
+          "included). Connect the wall surfaces to Walls";
+    if (!x.PatchNames.empty())
+    {
+      os << ", or pick the wall patches in Wall Blocks (patch blocks of the input:";
+      for (std::size_t i = 0; i < x.PatchNames.size() && i < 12; ++i)
+      {
+        os << (i ? ", '" : " '") << x.PatchNames[i] << "'";
+      }
+      os << (x.PatchNames.size() > 12 ? ", ...)" : ")");
+    }
+    os << ".";
+    vtkWarningWithObjectMacro(self, << os.str());
+  }
+  if (root && global[ShearCounts::Planar] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: the neighbours of "
+        << count(ShearCounts::Planar) << " of " << count(ShearCounts::Faces)
+        << " wall faces span only a plane (a mesh one cell thick, as 2-D cases are stored): "
+           "their gradient was taken in that plane, with derivatives across it set to zero.");
+  }
+  if (root &&
+    global[ShearCounts::FitTooFewSamples] + global[ShearCounts::FitIllConditioned] +
+        global[ShearCounts::FitNoSecondDistance] >
+      0)
+  {
+    vtkWarningWithObjectMacro(self,
+      "Shear Projection: the wall fit used the near-wall difference (first order) on "
+        << count(ShearCounts::FitTooFewSamples)
+        << " faces whose adjacent cell has fewer neighbours than a quadratic needs, "
+        << count(ShearCounts::FitNoSecondDistance)
+        << " faces with no neighbour at a second distance from the wall (one layer of cells), "
+           "and "
+        << count(ShearCounts::FitIllConditioned)
+        << " faces whose neighbours do not determine a quadratic.");
+  }
+  if (root &&
+    global[ShearCounts::NotFaces] + global[ShearCounts::Degenerate] +
+        global[ShearCounts::Interfaces] >
+      0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::NotFaces) << " wall cells that are not faces (vertices, lines), "
+        << count(ShearCounts::Degenerate) << " degenerate wall faces (zero area) and "
+        << count(ShearCounts::Interfaces)
+        << " faces shared by two volume blocks (interfaces, not walls) carry NaN.");
+  }
+  if (global[ShearCounts::Unmatched] > 0 && (root || local.N[ShearCounts::Unmatched] > 0))
+  {
+    std::ostringstream where;
+    for (std::size_t w = 0; w < x.Walls.size(); ++w)
+    {
+      if (unmatchedPerBlock[w] > 0)
+      {
+        where << " " << static_cast<vtkIdType>(unmatchedPerBlock[w]) << " of "
+              << x.Walls[w].Out->GetNumberOfCells() << " faces of '" << x.Walls[w].Name << "'";
+      }
+    }
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::Unmatched) << " of " << count(ShearCounts::Faces)
+        << " wall faces match no boundary face of the volume (walls that do not touch it, or "
+           "held by another rank) and carry NaN."
+        << where.str());
+  }
+  if (root && global[ShearCounts::OffWall] + global[ShearCounts::Failed] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::OffWall)
+        << " faces whose adjacent cell centre is not off the wall (degenerate cells) and "
+        << count(ShearCounts::Failed)
+        << " faces whose reconstruction failed (values not finite) carry NaN.");
+  }
+  if (root && global[ShearCounts::BadDensity] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: Density Array '"
+        << x.S.Density.Name << "' is not positive at the adjacent cell of "
+        << count(ShearCounts::BadDensity)
+        << " wall faces; they carry NaN shear, friction velocity and y+.");
+  }
+  if (root && global[ShearCounts::Size] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection: "
+        << count(ShearCounts::Size)
+        << " 3-D cells of a kind without faces (convex point sets) were ignored.");
+  }
+  if (root && global[ShearCounts::NotComputed] > 0)
+  {
+    vtkWarningWithObjectMacro(self, "Shear Projection was aborted: "
+        << count(ShearCounts::NotComputed) << " wall faces were not computed and carry NaN.");
+  }
+}
 } // namespace
+
+struct vtkShearProjection::AdjacencyCache
+{
+  WallAdjacency Blocks;
+  std::vector<WallFaceCache> Walls; ///< per output wall dataset, in order
+  std::string GradientNoted;        ///< the gradient array the user was warned about
+};
 
 //------------------------------------------------------------------------------
 vtkShearProjection::vtkShearProjection()
   : Cache(new AdjacencyCache)
 {
   this->SetNumberOfInputPorts(2);
+  this->SetWallBlockAssembly(vtkDataAssemblyUtilities::HierarchyName());
   for (int i = VELOCITY_ARRAY; i <= DENSITY_ARRAY; ++i)
   {
     this->SetInputArrayToProcess(
@@ -516,7 +604,39 @@ vtkShearProjection::vtkShearProjection()
   }
 }
 
-vtkShearProjection::~vtkShearProjection() = default;
+vtkShearProjection::~vtkShearProjection()
+{
+  this->SetWallBlockAssembly(nullptr);
+}
+
+void vtkShearProjection::AddWallBlockSelector(const char* selector)
+{
+  if (selector && *selector)
+  {
+    this->WallBlockSelectors.emplace_back(selector);
+    this->Modified();
+  }
+}
+
+void vtkShearProjection::ClearWallBlockSelectors()
+{
+  if (!this->WallBlockSelectors.empty())
+  {
+    this->WallBlockSelectors.clear();
+    this->Modified();
+  }
+}
+
+int vtkShearProjection::GetNumberOfWallBlockSelectors() const
+{
+  return static_cast<int>(this->WallBlockSelectors.size());
+}
+
+const char* vtkShearProjection::GetWallBlockSelector(int i) const
+{
+  return i >= 0 && i < this->GetNumberOfWallBlockSelectors() ? this->WallBlockSelectors[i].c_str()
+                                                             : nullptr;
+}
 
 //------------------------------------------------------------------------------
 int vtkShearProjection::FillInputPortInformation(int port, vtkInformation* info)
@@ -585,7 +705,9 @@ int vtkShearProjection::RequestData(
     inputVector[1]->GetNumberOfInformationObjects() ? vtkDataObject::GetData(inputVector[1], 0) : nullptr;
   vtkDataObject* output = vtkDataObject::GetData(outputVector, 0);
 
-  Settings s;
+  // Fetch: the properties, the volume blocks and their arrays.
+  Execution x;
+  ShearSettings& s = x.S;
   s.Velocity = SelectedArray(this, VELOCITY_ARRAY);
   s.WallVelocity = SelectedArray(this, WALL_VELOCITY_ARRAY);
   s.Gradient = SelectedArray(this, VELOCITY_GRADIENT_ARRAY);
@@ -598,399 +720,136 @@ int vtkShearProjection::RequestData(
   s.DensityValue = this->Density;
   s.Kappa = this->WallLawKappa;
   s.B = this->WallLawB;
-  if (!s.Velocity.Set())
+  if (!s.Density.Set() && !(this->Density > 0 && std::isfinite(this->Density)))
   {
-    vtkErrorMacro("Shear Projection needs a Velocity array (3 components) on the volume.");
-    return 0;
+    std::ostringstream os;
+    os << "Density is " << this->Density
+       << " kg/m^3; it must be positive (it divides the friction velocity and y+).";
+    x.Fail(os.str());
   }
+  if (!(this->Viscosity >= 0 && std::isfinite(this->Viscosity)))
+  {
+    std::ostringstream os;
+    os << "Viscosity is " << this->Viscosity << "; it must not be negative.";
+    x.Fail(os.str());
+  }
+  CollectVolume(x, volumeIn);
+  this->UpdateProgress(0.05);
 
-  // Volume blocks, their arrays and their (cached) boundaries.
-  std::vector<Leaf> all;
-  std::vector<std::string> regionNames; // not used: volume blocks are not regions
-  ListLeaves(volumeIn, all, regionNames);
-  std::vector<VolumeBlock> volume;
-  std::string error;
-  std::vector<Boundary>& cache = this->Cache->Blocks;
-  std::vector<Boundary> kept;
-  for (const Leaf& leaf : all)
+  // The adjacency of every volume block (cached while the geometry holds).
+  WallAdjacency& adjacency = this->Cache->Blocks;
+  double volumeCells = 0, unsupportedCells = 0;
+  this->NumberOfAdjacencyBuilds += adjacency.Update(x.VolumeLeaves);
+  for (std::size_t i = 0; i < x.Volume.size(); ++i)
   {
-    if (leaf.Data && error.empty() && !CheckGhostArrays(leaf.Data, leaf.Name, error))
-    {
-      continue;
-    }
-    if (!IsVolume(leaf.Data))
-    {
-      continue; // boundary patches of a composite reader, or empty pieces
-    }
-    VolumeBlock vb;
-    vb.Data = leaf.Data;
-    vb.Name = leaf.Name;
-    auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
-      if (!sel.Set() || !error.empty())
-      {
-        return;
-      }
-      vtkDataArray* a = FindSelectedArray(vb.Data, sel, comps, role, vb.Name, error);
-      view = MakeArrayView(a, sel.OnPoints);
-    };
-    fetch(s.Velocity, 3, "Velocity", vb.Velocity);
-    fetch(s.Gradient, 9, "Velocity gradient", vb.Gradient);
-    fetch(s.Viscosity, 1, "Viscosity", vb.Viscosity);
-    fetch(s.TurbulentViscosity, 1, "Turbulent viscosity", vb.TurbulentViscosity);
-    fetch(s.Density, 1, "Density", vb.Density);
-    volume.push_back(vb);
+    x.Volume[i].Adjacency = &adjacency[i];
+    volumeCells += static_cast<double>(adjacency[i].NumVolumeCells);
+    unsupportedCells += static_cast<double>(adjacency[i].NumUnsupported);
   }
-  // Reuse a cached boundary for every block whose mesh is unchanged.
-  for (VolumeBlock& vb : volume)
-  {
-    bool found = false;
-    for (Boundary& b : cache)
-    {
-      if (b.Matches(vb.Data))
-      {
-        kept.push_back(b);
-        found = true;
-        break;
-      }
-    }
-    if (!found)
-    {
-      kept.emplace_back();
-      kept.back().Build(vb.Data);
-      ++this->NumberOfAdjacencyBuilds;
-    }
-  }
-  cache = kept;
-  for (std::size_t i = 0; i < volume.size(); ++i)
-  {
-    volume[i].Index = &cache[i];
-  }
+  this->UpdateProgress(0.3);
 
-  double failed[1] = { error.empty() ? 0.0 : 1.0 };
-  GlobalMax(failed, 1);
-  if (failed[0] > 0)
-  {
-    ReportAgreedFailure(this, error);
-    return 0;
-  }
-
-  // The wall datasets of the output, each with its faces matched to cells.
-  struct WallBlock
-  {
-    vtkSmartPointer<vtkDataSet> Out;
-    std::string Name;
-    std::vector<WallFace> Faces;
-  };
-  std::vector<WallBlock> walls;
+  // The wall datasets of the output: the Walls input, the chosen patch
+  // blocks, or the boundary of every volume block; then validate them.
+  const bool byBlocks = !wallsIn && !this->WallBlockSelectors.empty();
   if (wallsIn)
   {
-    if (auto* tree = vtkDataObjectTree::SafeDownCast(wallsIn))
-    {
-      auto* outTree = vtkDataObjectTree::SafeDownCast(output);
-      outTree->CopyStructure(tree);
-      vtkSmartPointer<vtkDataObjectTreeIterator> it;
-      it.TakeReference(tree->NewTreeIterator());
-      it->VisitOnlyLeavesOn();
-      it->TraverseSubTreeOn();
-      for (it->InitTraversal(); !it->IsDoneWithTraversal(); it->GoToNextItem())
-      {
-        auto* leaf = vtkDataSet::SafeDownCast(it->GetCurrentDataObject());
-        if (!leaf)
-        {
-          continue;
-        }
-        WallBlock wb;
-        wb.Out.TakeReference(leaf->NewInstance());
-        wb.Out->ShallowCopy(leaf);
-        outTree->SetDataSet(it, wb.Out);
-        wb.Name = LeafName(it);
-        walls.push_back(wb);
-      }
-    }
-    else
-    {
-      WallBlock wb;
-      wb.Out = vtkDataSet::SafeDownCast(output);
-      wb.Out->ShallowCopy(wallsIn);
-      wb.Name = "walls";
-      walls.push_back(wb);
-    }
+    WallsFromInput(x, wallsIn, output);
+  }
+  else if (byBlocks)
+  {
+    WallsFromBlocks(x, volumeIn, output, this->WallBlockSelectors, this->WallBlockAssembly);
   }
   else
   {
-    auto* mb = vtkMultiBlockDataSet::SafeDownCast(output);
-    for (std::size_t i = 0; i < volume.size(); ++i)
+    WallsFromBoundary(x, output);
+  }
+  CheckWalls(x);
+
+  // One collective: the outcome of every check, and what the ranks hold.
+  double agreed[3] = { x.Error.empty() ? 0.0 : 1.0, volumeCells, x.SurfaceCells };
+  GlobalSum(agreed, 3);
+  if (agreed[0] > 0)
+  {
+    ReportAgreedFailure(this, x.Error);
+    output->Initialize();
+    return 0;
+  }
+  if (agreed[1] == 0)
+  {
+    if (ProcessRank() == 0 && agreed[2] > 0)
     {
-      WallBlock wb;
-      auto pd = vtkSmartPointer<vtkPolyData>::New();
-      pd->ShallowCopy(volume[i].Index->Faces);
-      pd->GetCellData()->RemoveArray("vtkOriginalCellIds");
-      wb.Out = pd;
-      wb.Name = volume[i].Name.empty() ? std::string("boundary") : volume[i].Name + " boundary";
-      if (mb)
-      {
-        mb->SetBlock(static_cast<unsigned int>(i), pd);
-        mb->GetMetaData(static_cast<unsigned int>(i))->Set(vtkCompositeDataSet::NAME(), wb.Name);
-      }
-      else
-      {
-        vtkPolyData::SafeDownCast(output)->ShallowCopy(pd);
-        wb.Out = vtkDataSet::SafeDownCast(output);
-      }
-      walls.push_back(wb);
+      vtkErrorMacro("Shear Projection needs the fluid volume (3-D cells) on Input; it holds "
+        << static_cast<vtkIdType>(agreed[2])
+        << " surface cells and no 3-D cell. Connect the volume to Input and the wall surfaces "
+           "to Walls.");
     }
+    else if (ProcessRank() == 0)
+    {
+      vtkErrorMacro("Shear Projection's Input holds no 3-D cells (no volume): nothing to project.");
+    }
+    output->Initialize();
+    return 0;
   }
 
-  Counts counts;
-  std::ostringstream unmatchedReport;
-  Scratch scratch;
-  for (std::size_t w = 0; w < walls.size(); ++w)
+  // Dispatch: the per-face loop, in chunks (progress, abort).
+  ShearCounts counts;
+  std::vector<double> unmatchedPerBlock(x.Walls.size(), 0);
+  vtkIdType totalFaces = 0, doneFaces = 0;
+  for (const WallBlock& wb : x.Walls)
   {
-    WallBlock& wb = walls[w];
+    totalFaces += wb.Out->GetNumberOfCells();
+  }
+  this->Cache->Walls.resize(x.Walls.size());
+  for (std::size_t w = 0; w < x.Walls.size(); ++w)
+  {
+    const WallBlock& wb = x.Walls[w];
     vtkDataSet* out = wb.Out;
-    const bool wallFloat = MakePointView(out).IsFloat;
-    DispatchFaces(out, wallFloat, [&](auto id, auto pt) {
-      FaceFrames<decltype(id), decltype(pt)>(out, wb.Faces);
-    });
-    // Wall velocity (optional, on the walls).
-    ArrayView wallVelocity;
-    if (s.WallVelocity.Set() && out->GetNumberOfCells() > 0)
+    const vtkIdType nf = out->GetNumberOfCells();
+    AddOutputArrays(out);
+    ShearCounts blockCounts;
+    WallFaceCache& faces = this->Cache->Walls[w];
+    if (!this->GetAbortExecute())
     {
-      std::string werror;
-      vtkDataArray* a = FindSelectedArray(out, s.WallVelocity, 3, "Wall velocity", wb.Name, werror);
-      if (!a)
-      {
-        vtkErrorMacro(<< werror);
-        return 0;
-      }
-      wallVelocity = MakeArrayView(a, s.WallVelocity.OnPoints);
+      PrepareWallFaces(s, x.Volume, adjacency, out, wb.BoundaryOf, faces);
     }
-    // Match faces to cells: directly for extracted boundaries, by centroid otherwise.
-    double unmatched = 0;
-    auto corners = vtkSmartPointer<vtkIdList>::New();
-    auto found = vtkSmartPointer<vtkIdList>::New();
-    bool pickFluidSide = false;
-    for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
+    for (vtkIdType begin = 0; begin < nf; begin += ChunkFaces)
     {
-      WallFace& face = wb.Faces[f];
-      if (face.NotFace)
+      const vtkIdType end = std::min(nf, begin + ChunkFaces);
+      if (this->GetAbortExecute())
       {
-        ++counts.NotFaces;
+        // Faces not computed carry NaN and are reported.
+        MarkWallFacesNotComputed(out, begin, end);
+        blockCounts.N[ShearCounts::NotComputed] += static_cast<double>(end - begin);
         continue;
       }
-      if (!face.Valid)
-      {
-        ++counts.Degenerate;
-        continue;
-      }
-      // Match within 1e-4 of the face size, widened by the rounding of the
-      // coordinates (float points far from the origin).
-      const double* c = face.Frame.Centroid;
-      const double reach = std::max(std::abs(c[0]), std::max(std::abs(c[1]), std::abs(c[2])));
-      const double tol = 1e-4 * std::sqrt(face.Frame.Area) + (wallFloat ? 1e-6 : 1e-13) * reach;
-      if (!wallsIn)
-      {
-        face.Block = static_cast<int>(w);
-        face.Cell = volume[w].Index->Cell[f];
-        // A face that another volume block also has is an interface, not a wall.
-        for (std::size_t v = 0; v < volume.size() && face.Cell >= 0; ++v)
-        {
-          double d2;
-          if (v != w && volume[v].Index->Near->FindClosestPointWithinRadius(tol, c, d2) >= 0)
-          {
-            face.Cell = -1;
-            ++counts.Interfaces;
-          }
-        }
-        if (face.Cell < 0)
-        {
-          continue;
-        }
-      }
-      else
-      {
-        // Every boundary face at this centroid, over all volume blocks. Two
-        // (the sides of a zero-thickness baffle) are told apart by the
-        // wall's stored orientation, taken to point out of the fluid (as
-        // solvers export walls); one is taken as it is.
-        struct Candidate
-        {
-          int Block;
-          vtkIdType Cell;
-          double Distance2;
-        };
-        std::vector<Candidate> candidates;
-        for (std::size_t v = 0; v < volume.size(); ++v)
-        {
-          volume[v].Index->Near->FindPointsWithinRadius(tol, c, found);
-          for (vtkIdType j = 0; j < found->GetNumberOfIds(); ++j)
-          {
-            const vtkIdType id = found->GetId(j);
-            double x[3];
-            volume[v].Index->Near->GetDataSet()->GetPoint(id, x);
-            const double d2 = vtkMath::Distance2BetweenPoints(x, c);
-            candidates.push_back({ static_cast<int>(v), volume[v].Index->Cell[id], d2 });
-          }
-        }
-        const Candidate* pick = nullptr;
-        for (const Candidate& cand : candidates)
-        {
-          bool better = !pick || cand.Distance2 < pick->Distance2;
-          if (candidates.size() > 1 && cand.Cell >= 0)
-          {
-            vtkDataSet* mesh = volume[cand.Block].Index->Mesh;
-            mesh->GetCellPoints(cand.Cell, corners);
-            double xP[3];
-            CellCentre(mesh, corners, xP);
-            const double toP[3] = { xP[0] - c[0], xP[1] - c[1], xP[2] - c[2] };
-            const bool fluidSide = Dot(toP, face.Frame.Normal) < 0;
-            if (pick && fluidSide != pickFluidSide)
-            {
-              better = fluidSide;
-            }
-            if (better)
-            {
-              pickFluidSide = fluidSide;
-            }
-          }
-          if (better)
-          {
-            pick = &cand;
-          }
-        }
-        if (pick)
-        {
-          face.Block = pick->Block;
-          face.Cell = pick->Cell;
-        }
-      }
-      if (face.Cell < 0)
-      {
-        ++unmatched;
-        continue;
-      }
-      if (wallVelocity.Valid())
-      {
-        out->GetCellPoints(f, corners);
-        for (int k = 0; k < 3; ++k)
-        {
-          if (!wallVelocity.OnPoints)
-          {
-            face.WallVelocity[k] = wallVelocity.Get(f, k);
-            continue;
-          }
-          double sum = 0;
-          for (vtkIdType j = 0; j < corners->GetNumberOfIds(); ++j)
-          {
-            sum += wallVelocity.Get(corners->GetId(j), k);
-          }
-          face.WallVelocity[k] = sum / static_cast<double>(corners->GetNumberOfIds());
-        }
-        if (wallVelocity.OnPoints)
-        {
-          // Green-Gauss over the face polygon: grad_s u = (1/A) sum over edges
-          // of the edge-mean value times the in-plane edge normal e x n.
-          const vtkIdType nc = corners->GetNumberOfIds();
-          for (vtkIdType j = 0; j < nc; ++j)
-          {
-            const vtkIdType a = corners->GetId(j);
-            const vtkIdType b = corners->GetId((j + 1) % nc);
-            double pa[3], pb[3];
-            out->GetPoint(a, pa);
-            out->GetPoint(b, pb);
-            const double e[3] = { pb[0] - pa[0], pb[1] - pa[1], pb[2] - pa[2] };
-            double en[3];
-            Cross(e, face.Frame.Normal, en);
-            for (int i = 0; i < 3; ++i)
-            {
-              const double mean = 0.5 * (wallVelocity.Get(a, i) + wallVelocity.Get(b, i));
-              for (int k = 0; k < 3; ++k)
-              {
-                face.WallGradient[3 * i + k] += mean * en[k] / face.Frame.Area;
-              }
-            }
-          }
-        }
-      }
+      ComputeWallFaces(s, x.Volume, out, wb.WallVelocity, faces, begin, end, blockCounts);
+      doneFaces += end - begin;
+      this->UpdateProgress(0.3 + 0.7 * static_cast<double>(doneFaces) /
+          static_cast<double>(std::max<vtkIdType>(totalFaces, 1)));
     }
-    if (unmatched > 0)
-    {
-      unmatchedReport << " " << static_cast<vtkIdType>(unmatched) << " of "
-                      << out->GetNumberOfCells() << " faces of '" << wb.Name << "'";
-    }
-    counts.Unmatched += unmatched;
-    counts.Faces += static_cast<double>(out->GetNumberOfCells());
-
-    double* tau = NewCellDoubleArray(out, "Wall Shear Stress", 3);
-    double* normal = NewCellDoubleArray(out, names::WallNormal, 3);
-    double* distance = NewCellDoubleArray(out, "Wall Distance", 1);
-    double* utau = NewCellDoubleArray(out, "Friction Velocity", 1);
-    double* yplus = NewCellDoubleArray(out, "y+", 1);
-    auto regimes = vtkSmartPointer<vtkIntArray>::New();
-    regimes->SetName("Near-Wall Regime");
-    regimes->SetNumberOfTuples(out->GetNumberOfCells());
-    out->GetCellData()->AddArray(regimes);
-    for (vtkIdType f = 0; f < out->GetNumberOfCells(); ++f)
-    {
-      const WallFace& face = wb.Faces[f];
-      double r[9];
-      int regime = UnknownRegime;
-      if (face.Cell >= 0)
-      {
-        Reconstruct(s, volume[face.Block], face, scratch, r, regime, counts);
-      }
-      else
-      {
-        for (double& v : r)
-        {
-          v = NaN;
-        }
-      }
-      for (int k = 0; k < 3; ++k)
-      {
-        tau[3 * f + k] = r[k];
-        normal[3 * f + k] = r[3 + k];
-      }
-      distance[f] = r[6];
-      utau[f] = r[7];
-      yplus[f] = r[8];
-      regimes->SetValue(f, regime);
-    }
+    unmatchedPerBlock[w] = blockCounts.N[ShearCounts::Unmatched];
+    counts.Add(blockCounts);
   }
 
-  double global[8] = { counts.Faces, counts.Unmatched, counts.OffWall, counts.FellBack,
-    counts.Failed, counts.NotFaces, counts.Degenerate, counts.Interfaces };
-  GlobalSum(global, 8);
-  if (global[5] + global[6] + global[7] > 0 && ProcessRank() == 0)
+  // Attach: the reports, from counts summed over the ranks.
+  double global[ShearCounts::Size + 1];
+  std::copy(counts.N, counts.N + ShearCounts::Size, global);
+  global[ShearCounts::Size] = unsupportedCells;
+  GlobalSum(global, ShearCounts::Size + 1);
+  Report(this, x, global, counts, unmatchedPerBlock, !wallsIn && !byBlocks);
+  if (ProcessRank() == 0 && s.Method == GRADIENT_TENSOR && s.Gradient.Set() &&
+    this->Cache->GradientNoted != s.Gradient.Name)
   {
-    vtkWarningMacro("Shear Projection: "
-      << static_cast<vtkIdType>(global[5]) << " wall cells that are not faces (vertices, lines), "
-      << static_cast<vtkIdType>(global[6]) << " degenerate wall faces (zero area) and "
-      << static_cast<vtkIdType>(global[7])
-      << " faces shared by two volume blocks (interfaces, not walls) carry NaN.");
+    this->Cache->GradientNoted = s.Gradient.Name; // said once per filter and array
+    vtkWarningMacro("Shear Projection: Velocity Gradient '"
+      << s.Gradient.Name
+      << "' is taken from the volume at each wall cell's centre. A gradient computed without the "
+         "wall (e.g. by a gradient filter on the volume) is not a wall gradient and underestimates "
+         "the wall shear on coarse near-wall cells (by up to half; see README). Wall fit (second "
+         "order, with no slip at the wall) or Velocity Gradient = None (a least-squares gradient "
+         "with the wall) include the wall.");
   }
-  if (global[1] > 0 && (ProcessRank() == 0 || counts.Unmatched > 0))
-  {
-    // Rank 0 gives the global count; a rank that holds unmatched faces names its blocks.
-    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[1]) << " of "
-                                         << static_cast<vtkIdType>(global[0])
-                                         << " wall faces match no boundary face of the volume "
-                                            "(walls that do not touch it, or held by another rank) "
-                                            "and carry NaN." << unmatchedReport.str());
-  }
-  if (global[2] + global[4] > 0 && ProcessRank() == 0)
-  {
-    vtkWarningMacro("Shear Projection: " << static_cast<vtkIdType>(global[2])
-                                         << " faces whose adjacent cell centre is not off the wall "
-                                            "(degenerate cells) and "
-                                         << static_cast<vtkIdType>(global[4])
-                                         << " faces whose reconstruction failed carry NaN.");
-  }
-  if (global[3] > 0 && ProcessRank() == 0)
-  {
-    vtkWarningMacro("Shear Projection: the wall fit found no second distinct wall distance on "
-      << static_cast<vtkIdType>(global[3]) << " faces and used the near-wall difference there.");
-  }
+  this->UpdateProgress(1.0);
   return 1;
 }
 
@@ -1004,4 +863,10 @@ void vtkShearProjection::PrintSelf(ostream& os, vtkIndent indent)
   os << indent << "Density: " << this->Density << "\n";
   os << indent << "WallLawKappa: " << this->WallLawKappa << "\n";
   os << indent << "WallLawB: " << this->WallLawB << "\n";
+  os << indent << "WallBlockAssembly: "
+     << (this->WallBlockAssembly ? this->WallBlockAssembly : "(none)") << "\n";
+  for (const std::string& sel : this->WallBlockSelectors)
+  {
+    os << indent << "WallBlockSelector: " << sel << "\n";
+  }
 }

@@ -64,7 +64,9 @@ def picker_default(prop, input_prop):
     ald = prop.find("ArrayListDomain")
     if delim and delim in values:
         name = values.split(delim)[-1]
-        if name:
+        # A picker without a none_string cannot hold "None": its domain
+        # takes the first array instead.
+        if name and not (name == "None" and ald is not None and not ald.get("none_string")):
             return name
     comps = None
     if input_prop is not None and ald is not None:
@@ -200,6 +202,14 @@ def outputs_section(proxy_name, cols):
         parts.append(table(["Column", "Unit", "Components", "How it is computed"], rows))
         parts.append("<p>The Total row's values are also port 0's field data, with the same names. "
                      "Every column carries its unit as array information (UNITS_LABEL).</p>")
+    elif proxy_name == "ShearProjection":
+        parts.append("<h3>Output arrays (cell data on the wall faces)</h3>")
+        parts.append(table(["Array", "Unit", "Components", "How it is computed"],
+                           [[esc(n), unit_text(u), c, esc(m)] for n, u, c, m in cols["WALLLOADS_SHEAR_ARRAYS"]]))
+        parts.append("<p>The wall faces keep their own arrays; without Walls (the whole boundary of the "
+                     "volume) they carry the volume's point data and the adjacent cells' cell data. "
+                     "Faces that are not computed carry NaN and Near-Wall Regime -1, and a warning "
+                     "counts them by reason.</p>")
     return "\n".join(parts)
 
 
@@ -250,7 +260,7 @@ def main(argv):
     outdir, header, overview = argv[1], argv[2], argv[3]
     cols = parse_columns(header)
     for key in ("WALLLOADS_LOAD_COLUMNS", "WALLLOADS_REGION_COLUMNS", "WALLLOADS_REFERENCE_COLUMNS",
-                "WALLLOADS_FACE_ARRAYS", "WALLLOADS_TRACTION_FIELDS"):
+                "WALLLOADS_FACE_ARRAYS", "WALLLOADS_TRACTION_FIELDS", "WALLLOADS_SHEAR_ARRAYS"):
         if not cols.get(key):
             raise SystemExit("make_help.py: %s not found in %s" % (key, header))
     os.makedirs(outdir, exist_ok=True)

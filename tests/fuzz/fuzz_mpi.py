@@ -70,12 +70,15 @@ def same_on_all_ranks(obj, names, what):
 
 def piece(rng_case, rng_rank, kind):
     """This rank's piece: same shape of tree on most ranks, not all."""
+    # Draw from rng_case unconditionally: the settings that follow come from
+    # it and must be the same on every rank whatever this rank's piece is.
+    composite = rng_case.random() >= 0.5
     hostile = rng_rank.random() < 0.3
     if rng_rank.random() < 0.15:
         return None if kind == "volume" else I.random_surface(rng_rank, False) if hostile else F.vtkPolyData()
     make = (lambda: I.random_volume(rng_rank, not hostile)) if kind == "volume" else \
         (lambda: I.random_surface(rng_rank, not hostile))
-    if rng_case.random() < 0.5:
+    if not composite:
         return make()
     return I.random_composite(rng_rank, make, not hostile)
 

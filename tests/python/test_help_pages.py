@@ -44,6 +44,15 @@ T.expect("array pickers show their real default",
          dict(defaults) == {"Pressure": "Automatic", "DensityArray": "None", "RegionArray": "None",
                             "WallShearStress": "the first 3-component floating-point array (the only one, when there is one)"},
          str(defaults))
+sp = open(os.path.join(HELP, "filters.ShearProjection.html")).read()
+missing = [(n, u) for n, u, c, m in cols["WALLLOADS_SHEAR_ARRAYS"] if row_of(sp, n) != (u or "-")]
+T.expect("Shear Projection page: every output array with its unit", not missing, str(missing))
+defaults = dict(re.findall(r"<code>(\w+)</code></td><td>.*?</td><td>([^<]*)</td>", sp))
+T.expect("Shear Projection page: Velocity's real default, None for every optional picker",
+         defaults.get("Velocity", "").startswith("the first 3-component")
+         and all(defaults.get(k) == "None" for k in ("WallVelocity", "VelocityGradient", "ViscosityArray",
+                                                     "TurbulentViscosityArray", "DensityArray")), str(defaults))
+T.expect("Shear Projection page: no 'must contain' restriction", "must contain" not in sp)
 T.expect("when a property is shown is stated", "shown when Shear Source is 'Wall shear stress array'" in wt)
 T.expect("panel labels and scripting names", "<b>Reference Pressure</b><br/><code>ReferencePressure</code>" in wt)
 T.expect("overview: what each filter does and both paths",

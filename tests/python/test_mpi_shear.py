@@ -8,7 +8,10 @@ points) sit with their cells. The total wall shear force is exact,
 tau_w = mu U / h over the wall area (plane Couette flow, e.g. White, Viscous
 Fluid Flow, §3-2), and equal to the serial result on every rank.
 A further wall patch that touches no rank's volume is reported as unmatched,
-counted over all ranks.
+counted over all ranks. Then a wall block without the selected wall
+velocity on the last rank only: every rank fails together (no hang); and
+pieces with a ghost layer, without Walls: only the box's true boundary is
+wall, its area the same at 1, 2 and 3 ranks.
 """
 import os
 import sys
@@ -88,6 +91,73 @@ T.check_close("rank %d: the stray patch's face is skipped (NaN), counted globall
               T.field(out, "Skipped Faces"), 1)
 if rank == 0:
     assert any(True for _ in warnings), "no unmatched-face warning on rank 0"
+for p in (li, wt):
+    simple.Delete(p)
+
+# --- A bad wall block on the last rank only -----------------------------------------
+# The last rank's wall block lacks the selected wall velocity array (the
+# others have it). Every rank must fail, with one collective agreeing on it:
+# an earlier build returned on that rank before its collective and the
+# others waited forever (the CTest TIMEOUT turns a regression into a failure).
+bad = rank == ranks - 1
+wall_velocity = np.zeros((walls.GetNumberOfCells(), 3))
+w2 = sc.polydata(wpts, wfaces, cell_arrays=None if bad else {"wall_velocity": wall_velocity}) \
+    if rank < owners else walls
+if bad and rank >= owners:
+    # An empty rank that still holds a (one-face) wall block without the array.
+    fpts, ffaces = sc.grid_boundary_patch(np.array([20.0, 21.0]), np.array([0.0, 1.0]), np.array([0.0, 1.0]), 1, 0)
+    w2 = sc.polydata(fpts, ffaces)
+sp.Walls = T.producer(w2)
+sp.WallVelocity = ["CELLS", "wall_velocity"]
+errors = []
+sp.GetClientSideObject().AddObserver("ErrorEvent", lambda o, e: errors.append(e))
+sp.UpdatePipeline()
+failed = sp.GetClientSideObject().GetOutputDataObject(0).GetNumberOfCells() == 0
+T.expect("rank %d: the bad block on rank %d fails every rank (no hang)" % (rank, ranks - 1), failed)
+if bad:
+    T.expect("rank %d (the bad one): an error names the array" % rank, len(errors) >= 1)
+elif rank == 0:
+    T.expect("rank 0: an error says another rank's input is bad", len(errors) >= 1)
+simple.Delete(sp)
+
+# --- A ghost layer, no Walls: only the true boundary is wall ------------------------------
+# Each owning rank holds its slab of cells plus the neighbouring slabs' first
+# column as DUPLICATECELL ghosts (what a ghost-cell generator gives). Without
+# Walls, only the outer boundary of the owned cells is wall: the box's
+# surface area in total, 2 (LX H + H LZ + LZ LX), not more (an earlier build
+# took partition and ghost-layer faces as walls).
+from vtkmodules.util.numpy_support import numpy_to_vtk  # noqa: E402
+from vtkmodules.vtkCommonDataModel import vtkDataSetAttributes, vtkUnstructuredGrid  # noqa: E402
+if rank < owners:
+    lo, hi = rank * NX // owners, (rank + 1) * NX // owners
+    glo, ghi = max(lo - 1, 0), min(hi + 1, NX)
+    x = x_all[glo:ghi + 1]
+    pts, hexes, ijk = sc.hex_grid(x, y, z)
+    xc = sc.cell_vertex_means(pts, hexes)
+    u = np.zeros_like(xc)
+    u[:, 0] = U * xc[:, 1] / H
+    ghost_vol = sc.unstructured_grid(pts, hexes, 12, cell_arrays={"velocity": u})
+    i_global = ijk[:, 0] + glo
+    g = numpy_to_vtk(np.where((i_global < lo) | (i_global >= hi), vtkDataSetAttributes.DUPLICATECELL, 0)
+                     .astype(np.uint8), deep=1)
+    g.SetName(vtkDataSetAttributes.GhostArrayName())
+    ghost_vol.GetCellData().AddArray(g)
+else:
+    ghost_vol = vtkUnstructuredGrid()
+sp = simple.ShearProjection(Input=T.producer(ghost_vol), Velocity=["CELLS", "velocity"], Viscosity=MU)
+wt = simple.WallTraction(Input=sp, ShearSource="Wall shear stress array", Pressure=["CELLS", "None"],
+                         WallShearStress=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
+li = simple.LoadIntegration(Input=wt)
+li.UpdatePipeline()
+out = li.GetClientSideObject().GetOutputDataObject(0)
+T.check_close("rank %d: ghosted pieces, no Walls: wall area = the box's surface" % rank, T.field(out, "Area"),
+              2 * (LX * H + H * LZ + LZ * LX), rtol=1e-14, source="geometry")
+# The bottom wall's shear force is exact (Couette), the top's opposite; the
+# side walls carry tau = 0 (u normal to x = const) or along x on z = const
+# walls (tangential u, near-wall difference mu u_P/d, not zero): only the
+# y-walls' sum is checked through symmetry: the total along y is zero.
+T.check_close("rank %d: ghosted pieces: no force along y" % rank, T.field(out, "Viscous Force")[1], 0.0,
+              atol=1e-13 * MU * U / H * LX * LZ)
 controller.Barrier()
 if rank == 0:
     T.done(__file__)

@@ -116,26 +116,28 @@ def quiet(proxy):
 # ---------------------------------------------------------------------------
 
 def check_no_velocity():
-    print("\n== (a) no velocity array selected ==")
+    print("\n== (a) no velocity array selected: the default, or an error naming what exists ==")
     from wallloads.WallLoadsFilters import vtkShearProjection
     vol, _, _, _ = couette_box()
     f = vtkShearProjection()
     f.SetInputData(vol)
+    f.SetViscosity(MU)
     cap = Capture(f)
-    f.GetExecutive().AddObserver("ErrorEvent", lambda *a: None)
     f.Update()
-    expect("VTK class, nothing selected: one error", len(cap.errors) == 1, str(len(cap.errors)))
-    contains_all("VTK class, nothing selected: says what is needed", cap.errors[0], ["Velocity", "3 components"])
-    expect("VTK class, nothing selected: empty output", f.GetOutputDataObject(0).GetNumberOfCells() == 0)
+    # Velocity defaults to the first 3-component array of the volume (issue 8:
+    # a script may create the filter before its input has data); an earlier
+    # build failed here with "needs a Velocity array".
+    expect("VTK class, nothing selected: the first 3-component array is used, no error",
+           not cap.errors and f.GetOutputDataObject(0).GetNumberOfCells() > 0, str(cap.errors))
+    check_good("VTK class, nothing selected", f.GetOutputDataObject(0),
+               T.cell_array(f.GetOutputDataObject(0), "Wall Normal")[:, 1] > 0.5)
 
     src = T.producer(vol)
-    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", ""])
+    sp = simple.ShearProjection(Input=src, Velocity=["CELLS", ""], Viscosity=MU)
     cap = Capture(sp)
-    quiet(sp)
     out = T.output_of(sp)
-    expect("proxy, Velocity set to '': one error", len(cap.errors) == 1, str(len(cap.errors)))
-    contains_all("proxy, Velocity set to '': says what is needed", cap.errors[0], ["Velocity", "3 components"])
-    expect("proxy, Velocity set to '': no output cells", out.GetNumberOfCells() == 0)
+    expect("proxy, Velocity set to '': the default array, no error", not cap.errors and out.GetNumberOfCells() > 0,
+           str(cap.errors))
     simple.Delete(sp)
 
     # A volume with no 3-component array at all: the property has nothing to select.
@@ -317,16 +319,14 @@ def check_degenerate_cells():
             if method != "Wall law":
                 check_good(label, out, np.arange(nf) < nf - 1)
             text = " ".join(cap.warnings)
-            if kind == "coincident":
-                # its bottom and top faces are both boundary faces with the same centroid: the
-                # wall face matches one of them, and the cell centre is on the wall
-                contains_all(label + ": counted as degenerate", text,
-                             ["1 faces whose adjacent cell centre is not off the wall"])
-            else:
-                # the two faces with the same ids cancel in the boundary extraction (a face
-                # seen twice is interior), so the wall face has nothing to match: counted as
-                # unmatched -- the count is right, the stated reason ('do not touch') is not
-                contains_all(label + ": counted (as unmatched)", text, ["1 of %d wall faces" % nf])
+            # 'coincident': its bottom and top faces are both boundary faces with the same
+            # centroid; 'repeated': its bottom and top faces have the same ids, and as no
+            # other cell has them both are boundary faces of this cell (WallAdjacency finds
+            # the neighbour across a face by the cells that hold all its corners; an earlier
+            # extraction cancelled them and reported the face as unmatched, the wrong
+            # reason). Either way the wall face matches, and the cell centre is on the wall.
+            contains_all(label + ": counted as degenerate", text,
+                         ["1 faces whose adjacent cell centre is not off the wall"])
         simple.Delete(sp)
         # no Walls: the collapsed cell's own boundary faces (zero-area sides, and for
         # 'coincident' its bottom and top) carry NaN and are counted; the box's bottom is exact
@@ -370,8 +370,9 @@ def check_empty_pieces():
     cap = Capture(sp)
     out = T.output_of(sp)
     names = [n for n, _ in leaves(out)]
-    expect("empty + fluid, no walls: no error or warning (empty piece needs no arrays)",
-           not cap.errors and not cap.warnings, str(cap.errors + cap.warnings))
+    expect("empty + fluid, no walls: no error, no warning but the default-walls note (empty piece "
+           "needs no arrays)", not cap.errors and not cap.unexpected(T.NOTE_DEFAULT_WALLS),
+           str(cap.errors + cap.warnings))
     expect("empty + fluid, no walls: one output block, the fluid's boundary", names == ["fluid boundary"], str(names))
     b = leaves(out)[0][1]
     n = T.cell_array(b, "Wall Normal")
@@ -385,23 +386,22 @@ def check_empty_pieces():
     for p in (sp2, sp, src):
         simple.Delete(p)
 
+    # A volume with no 3-D cells at all is an error that says so (issue 7 item 14;
+    # this build gave an empty output and no message), with or without walls.
     for label, volume in (("plain empty grid", empty), ("multiblock of an empty grid", multiblock([("e", empty)]))):
         src = T.producer(volume)
-        sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "velocity"], Viscosity=MU)
-        cap = Capture(sp)
-        out = T.output_of(sp)
-        expect(label + ", no walls: empty output, no error or warning",
-               not cap.errors and not cap.warnings and out.GetNumberOfPoints() == 0,
-               str(cap.errors + cap.warnings))
-        sp2 = simple.ShearProjection(Input=src, Walls=wsrc, Velocity=["CELLS", "velocity"], Viscosity=MU)
-        cap = Capture(sp2)
-        out = T.output_of(sp2)
-        expect(label + ", walls: no error, one warning", not cap.errors and len(cap.warnings) == 1,
-               str(cap.errors + cap.warnings))
-        contains_all(label + ", walls: all faces counted", cap.warnings[0], ["6 of 6 wall faces"])
-        expect(label + ", walls: all NaN", all_nan(out, np.arange(out.GetNumberOfCells())))
-        for p in (sp2, sp, src):
-            simple.Delete(p)
+        for walls in (None, wsrc):
+            sp = simple.ShearProjection(Input=src, Velocity=["CELLS", "velocity"], Viscosity=MU)
+            if walls is not None:
+                sp.Walls = walls
+            cap = Capture(sp)
+            out = T.output_of(sp)
+            tag = label + (", walls" if walls is not None else ", no walls")
+            expect(tag + ": one error, empty output", len(cap.errors) == 1 and out.GetNumberOfPoints() == 0,
+                   str(cap.errors + cap.warnings))
+            contains_all(tag + ": the error says there is no volume", cap.errors[0], ["no 3-D cells"])
+            simple.Delete(sp)
+        simple.Delete(src)
     # empty walls
     src = T.producer(vol)
     ew = T.producer(vtkPolyData())
@@ -429,8 +429,13 @@ def check_composite_volume():
     out = T.output_of(sp)
     lv = leaves(out)
     nx, ny, nz = len(X) - 1, len(Y) - 1, len(Z) - 1
-    expect("patch ignored as a volume: no error or warning", not cap.errors and not cap.warnings,
-           str(cap.errors + cap.warnings))
+    expect("patch ignored as a volume: no error, one warning (walls default to the whole boundary)",
+           not cap.errors and len(cap.warnings) == 1, str(cap.errors + cap.warnings))
+    contains_all("default walls: the warning counts the faces and names the patch blocks", cap.warnings[0],
+                 [T.NOTE_DEFAULT_WALLS, "all %d boundary faces" % (2 * ((len(X) - 1) * (len(Y) - 1)
+                                                                     + (len(Y) - 1) * (len(Z) - 1)
+                                                                     + (len(Z) - 1) * (len(X) - 1))),
+                  "Wall Blocks", "'bottom'"])
     expect("patch ignored as a volume: one output block 'fluid boundary'", [n for n, _ in lv] == ["fluid boundary"],
            str([n for n, _ in lv]))
     expect("patch ignored as a volume: the fluid's boundary faces only",

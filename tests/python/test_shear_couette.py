@@ -249,7 +249,10 @@ def check_exact_methods():
         check_wall_fields(method + " (point velocity) bottom", b["bottom"], info["ex"], info["ey"], +1, DY_BOTTOM,
                           U_WALL / H)
         check_wall_fields(method + " (point velocity) top", b["top"], info["ex"], info["ey"], -1, DY_TOP, U_WALL / H)
-    expect("exact methods: no errors or warnings", not cap.errors and not cap.warnings,
+    # The gradient-array run warns, by design, that a gradient taken on the
+    # volume is not a wall gradient (vtkShearProjection.h); nothing else may.
+    expect("exact methods: no errors, one warning (the gradient array's)",
+           not cap.errors and not cap.unexpected(T.NOTE_GRADIENT_ARRAY) and len(cap.warnings) == 1,
            str(cap.errors + cap.warnings))
     for p in (sp, wsrc, vsrc):
         simple.Delete(p)
@@ -290,7 +293,8 @@ def check_oblique_frame():
     sign = np.r_[np.ones(nb), -np.ones(out.GetNumberOfCells() - nb)]
     close("walls as vtkUnstructuredGrid: tau = +-mu U/h Q e_x", T.cell_array(out, "Wall Shear Stress"),
           np.outer(sign * TAU, info["ex"]), atol=RTOL_EXACT * TAU)
-    expect("oblique: no errors or warnings", not cap.errors and not cap.warnings, str(cap.errors + cap.warnings))
+    expect("oblique: no errors or warnings (but the gradient array's note)",
+           not cap.errors and not cap.unexpected(T.NOTE_GRADIENT_ARRAY), str(cap.errors + cap.warnings))
     for p in (sp, wsrc, vsrc):
         simple.Delete(p)
 
@@ -312,11 +316,18 @@ def check_no_walls_mode():
     expect("no walls: nx*nz faces with normal +y", np.count_nonzero(bottom) == nx * nz)
     close("no walls: bottom tau = mu U/h e_x", tau[bottom], np.tile([TAU, 0, 0], (nx * nz, 1)),
                   atol=RTOL_EXACT * TAU, source="White VFF §3-2")
-    # the side planes x = const see no tangential velocity relative to a wall at rest
-    side = np.abs(n[:, 0]) > 0.5
-    close("no walls: x = const faces, tau = 0 (u normal to them)", tau[side], 0.0, atol=RTOL_EXACT * TAU)
     close("no walls: distance of bottom faces dy/2", T.cell_array(out, "Wall Distance")[bottom],
                   DY_BOTTOM / 2, rtol=16 * EPS)
+    # The side planes x = const see no tangential velocity relative to a wall
+    # at rest: the near-wall difference gives tau = 0 there exactly. (Not the
+    # wall fit: the flow crosses those planes, so they are not no-slip walls,
+    # and the fit's no slip at their corners contradicts the field.)
+    sp.Method = "Near-wall difference"
+    out = T.output_of(sp)
+    n = T.cell_array(out, "Wall Normal")
+    side = np.abs(n[:, 0]) > 0.5
+    close("no walls, near-wall difference: x = const faces, tau = 0 (u normal to them)",
+          T.cell_array(out, "Wall Shear Stress")[side], 0.0, atol=RTOL_EXACT * TAU)
     simple.Delete(sp)
     simple.Delete(vsrc)
 
@@ -376,7 +387,8 @@ def check_viscosity_options():
         close("kinematic nu + nu_t array, density array (%s): tau = rho_P (nu + nu_t) U/h" % k,
                       T.cell_array(blocks_of(out)[k], "Wall Shear Stress")[:, 0],
                       s * info["rho"][c] * (NU + info["mu_t"][c]) * U_WALL / H, rtol=RTOL_EXACT)
-    expect("viscosity options: no errors or warnings", not cap.errors and not cap.warnings,
+    expect("viscosity options: no errors or warnings (but the gradient array's note)",
+           not cap.errors and not cap.unexpected(T.NOTE_GRADIENT_ARRAY),
            str(cap.errors + cap.warnings))
     for p in (sp, wsrc, vsrc):
         simple.Delete(p)

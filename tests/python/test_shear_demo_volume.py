@@ -25,10 +25,12 @@ Discretisation error: the file is level n = 36 of the family
 generate_demo.build_volume(n, 2n, n/2) (spherical shell R..3R, stretch 2);
 the test also runs n = 12, 18, 24 in memory (walls: uv_sphere(R, n, 2n) with
 the same point p and wall velocity) and measures the order and constant of
-each error. The tolerance at the file level is then 1.05 x C x h_36 (first
-order, h = pi/n) with C the constant of n = 24 plus its change from n = 18
-(see test_shear_stokes_sphere.py: the near-wall error of these meshes is
-first order, profile plus the sagitta of the flat faces). The surface-only
+each error. The tolerance at the file level is then 1.05 x C x h_36^p
+(h = pi/n) with C the constant of n = 24 plus its change from n = 18 and p
+the nominal order: 1 for the near-wall difference and the gradient tensor
+(see test_shear_stokes_sphere.py: profile plus the sagitta of the flat
+faces), 2 for the wall fit (no slip at the faces' corners, which lie on the
+sphere; observed orders asserted within 1.7-3.5). The surface-only
 path is second order (faceting, about 0.2 % here), so the two paths must
 agree within the sum of the two measured errors.
 
@@ -47,11 +49,14 @@ that as a defect check. The least-squares gradient tensor includes G^T n.
 Measured when written (ratio to exact at n = 12/18/24/36, observed order):
   near-wall difference: friction 0.689/0.780/0.830/0.883 (0.89), total drag
     0.888/0.925/0.943/0.962 (0.99), torque 0.695/0.787/0.837/0.889 (0.92);
-  wall fit: friction 0.682/0.773/0.824/0.878 (0.87), total drag
-    0.885/0.922/0.941/0.960 (0.97), torque 0.667/0.765/0.819/0.876 (0.90);
+  wall fit: friction 0.9544/0.9866/0.9948/0.9989 (3.37), total drag
+    0.9699/0.9888/0.9944/0.9979 (2.42), torque 0.9420/0.9802/0.9907/0.9968
+    (2.65): at the file level within 1e-8 of the surface-only path (an
+    earlier wall fit on the cells stacked off the wall gave 0.878, 0.960 and
+    0.876, first order);
   least-squares gradient: friction 0.577/0.708/0.781/0.857 (0.99), total
     0.853/0.902/0.928/0.954 (1.06), torque 0.626/0.748/0.814/0.881 (1.05).
-  First-order extrapolations from n = 18 and 36: 0.98-1.02 for every one.
+  Extrapolations from n = 18 and 36 at the nominal order: 0.986-1.015.
   Surface-only path: errors 0.15 % (friction), 0.22 % (total), 0.32 % (torque).
   y+ on the bead 5.2e-4 .. 2.2e-3 (near-wall difference; first cell centres
   1.84e-5 m from the wall).
@@ -85,6 +90,9 @@ assert (G.N_POLAR, G.N_AZIMUTH, G.VOLUME_N_RADIAL) == (36, 72, 18), "the file's 
 LEVELS = [12, 18, 24, 36]          # 36: the files
 H = np.array([math.pi / n for n in LEVELS])
 METHODS = ["Near-wall difference", "Wall fit", "Gradient tensor"]
+# Nominal order and the band of observed orders over n = 12..36 (docstring).
+ORDER = {"Near-wall difference": (1, (0.7, 1.3)), "Gradient tensor": (1, (0.7, 1.3)),
+         "Wall fit": (2, (1.7, 3.5))}
 QUANTITIES = {  # name: (exact, source)
     "friction drag": (FV_Z, "Stokes 1851; Batchelor 1967 §4.9: 4 pi mu R U"),
     "total drag": (F_Z, "Stokes 1851: 6 pi mu R U, plus buoyancy (analytic.json)"),
@@ -229,21 +237,21 @@ for m in METHODS:
     for q, (exact, source) in QUANTITIES.items():
         vals = np.array(results[m][q])
         err = np.abs(vals / exact - 1.0)
-        consts = err / H
+        p, (lo, hi) = ORDER[m]
+        consts = err / H ** p
         order = T.observed_order(H, err)
         c_bound = 1.05 * (consts[-2] + max(0.0, consts[-2] - consts[-3]))
-        bound = c_bound * H[-1]
+        bound = c_bound * H[-1] ** p
         bounds[(m, q)] = bound
-        # First-order extrapolation of the ratio from n = 18 and 36 (h halves).
+        # Extrapolation of the ratio from n = 18 and 36 (h halves), at the nominal order.
         ratio = vals / exact
-        limit = 2 * ratio[-1] - ratio[1]
-        print("  %-21s %-13s ratio %s  |err| %s  e/h %s  order %.2f  extrapolated ratio %.3f" % (
-            m, q, np.array2string(ratio, precision=4), np.array2string(err, precision=3),
+        limit = (2 ** p * ratio[-1] - ratio[1]) / (2 ** p - 1)
+        print("  %-21s %-13s ratio %s  |err| %s  e/h^%d %s  order %.2f  extrapolated ratio %.4f" % (
+            m, q, np.array2string(ratio, precision=4), np.array2string(err, precision=3), p,
             np.array2string(consts, precision=3), order, limit))
-        # Measured orders 0.87 .. 1.06 (first order, see the docstring).
-        ok = err[-1] <= bound and 0.7 <= order <= 1.3
-        line = "    file level |err| %.3e vs tolerance %.3e (1.05 x extrapolated C x h_36) [%s]" % (
-            err[-1], bound, source)
+        ok = err[-1] <= bound and lo <= order <= hi
+        line = "    file level |err| %.3e vs tolerance %.3e (1.05 x extrapolated C x h_36^%d) [%s]" % (
+            err[-1], bound, p, source)
         print(line)
         if q == "torque" and m in ("Near-wall difference", "Wall fit") and not ok:
             defects.append(

@@ -31,11 +31,14 @@ Levels n_polar = 8, 16, 32, 64. Expected orders (our analysis):
   centroid lies a sagitta delta ~ R h^2/16 (1 + sin^2 theta) inside it, so
   u_P corresponds to a wall distance d - delta: a relative error -delta/d ~
   h (d ~ h). The test prints both parts at the finest level.
-* Wall fit (two samples here: the wall cell and the cell stacked above it,
-  checked face by face against a numpy fit): it removes the profile term
-  but not the sagitta, so first order on this faceted wall (its documented
-  second order needs the analytic field to vanish on the faces). Orders are
-  fitted on n = 16, 32, 64 (n = 8 is pre-asymptotic).
+* Wall fit (WallFit.h): a quadratic fit over the wall cell, its neighbours
+  and the face's corners with no slip. The corners lie on the sphere, so
+  the sagitta does not enter: second order, and the friction drag converges
+  faster still (face errors of both signs partly cancel in the sum; measured
+  order 3.9 over n = 16..64, asserted >= 1.8). The largest face errors sit
+  in the rows next to the poles, where the cells' aspect ratio grows like n:
+  printed, not asserted (the order per face is asserted on the cylinder of
+  test_shear_slabs.py and in the kernel tests).
 * Gradient tensor: the gradient at the cell centre, not at the wall: first
   order (documented), with the array and with the least-squares gradient.
 * Point velocity (vertex data averaged over the cell): first order.
@@ -57,8 +60,9 @@ checked to round-off.
 Measured when written (friction drag error at n = 8/16/32/64, order over
 16..64): near-wall difference 40/23/12/6.4 %, 0.93 (of which, at n = 64,
 1.4 % is the profile term, model 1.5 d/R = 1.5 %, and 5 % the sagitta);
-wall fit 40/23/13/6.6 %, 0.91 (an earlier build, which also fitted the
-tangential neighbours, gave 1.4/13/8.6/4.9 %, order 0.70); least-squares gradient
+wall fit 12/1.7/0.18/0.0075 %, 3.9 (an earlier fit on the two cells stacked
+off the wall gave 40/23/13/6.6 %, order 0.91, and one that also fitted the
+tangential neighbours 1.4/13/8.6/4.9 %, order 0.70); least-squares gradient
 56/32/16/7.6 %, 1.04; gradient array at the cell centre 25/14/7.4/3.8 %,
 0.94; near-wall difference with point velocity 26/13/6.1/3.0 %, 1.03.
 Pressure force 6.97e-2 h^2, order 2.00, identical to the surface-only path.
@@ -98,12 +102,16 @@ PATHS = {  # name: (Method, velocity association, velocity-gradient array)
 }
 # (observed-order band over n = 16..64, nominal order p of the bound)
 BANDS = {"viscous": ((0.8, 1.3), 1.0), "force": ((0.8, 1.3), 1.0), "pressure": ((1.8, 2.2), 2.0)}
+# The wall fit puts no slip at the faces' corners, which lie on the sphere:
+# second order (module docstring).
+PATH_BANDS = {"wall fit": {"viscous": ((1.8, 4.5), 2.0), "force": ((1.8, 4.5), 2.0)}}
 
 # Error constants e/h^p at n = 64 when this test was written (relative to
-# |4 pi mu R U| for 'viscous', |6 pi mu R U| for 'force' and 'pressure').
+# |4 pi mu R U| for 'viscous', |6 pi mu R U| for 'force' and 'pressure';
+# p = 2 for the wall fit and the pressure, 1 otherwise).
 RECORDED_C = {
     "near-wall difference viscous": 1.2977, "near-wall difference force": 0.86854,
-    "wall fit viscous": 1.3376, "wall fit force": 0.89518,
+    "wall fit viscous": 0.031178, "wall fit force": 0.085069,
     "gradient, least squares viscous": 1.5471, "gradient, least squares force": 1.0348,
     "gradient, array viscous": 0.77277, "gradient, array force": 0.51858,
     "near-wall diff., point U viscous": 0.60913, "near-wall diff., point U force": 0.40949,
@@ -214,6 +222,7 @@ def check_convergence(label, errors, band, p, source):
 print("Stokes sphere volume: R=%g mu=%g U=%s centre=%s, shell to %g R, stretch %g" % (
     R, MU, U, CENTRE, OUTER / R, STRETCH))
 errors = {path: {"viscous": [], "force": [], "pressure": []} for path in PATHS}
+face_errors = []   # wall fit: max over the faces of |tau - tau_exact| / max |tau_exact|
 for n in LEVELS:
     sc = scene(n)
     n_faces = len(sc["F"])
@@ -248,18 +257,11 @@ for n in LEVELS:
                   np.concatenate([utau, d * utau / (MU / RHO)]), rtol=1e-13)
         assert np.all(r["Near-Wall Regime"] == 0), "creeping flow: y+ < 5 everywhere"
         if path == "wall fit":
-            # Two samples: the wall cell and the cell stacked above it (the
-            # next layer, same lattice face), distances along the face normal;
-            # a d + b d^2 through both: a = (u1 d2^2 - u2 d1^2)/(d1 d2 (d2 - d1)).
-            x1, x2 = sc["xc"][:n_faces], sc["xc"][n_faces:2 * n_faces]
-            d1 = np.einsum("ij,ij->i", x1 - sc["C"], nw)
-            d2 = np.einsum("ij,ij->i", x2 - sc["C"], nw)
-            u1, u2 = (S.stokes_sphere_velocity(x, R, U, CENTRE) for x in (x1, x2))
-            t1 = u1 - np.einsum("ij,ij->i", u1, nw)[:, None] * nw
-            t2 = u2 - np.einsum("ij,ij->i", u2, nw)[:, None] * nw
-            a = (t1 * (d2**2)[:, None] - t2 * (d1**2)[:, None]) / (d1 * d2 * (d2 - d1))[:, None]
-            check_max("(%s n=%d) tau = two-sample fit, numpy" % (path, n), tau, MU * a,
-                      atol=1e-10 * np.abs(tau).max(), source="vtkShearProjection.h, wall fit")
+            # Face by face against the exact wall shear stress at the face's
+            # radial projection on the sphere (the faces' corners are on it).
+            wss = S.stokes_sphere(sc["C"], R, U, MU, CENTRE)["wss"]
+            face_errors.append(float(np.max(np.linalg.norm(tau - wss, axis=1)) /
+                                     np.max(np.linalg.norm(wss, axis=1))))
         if path in ("near-wall difference", "near-wall diff., point U"):
             # The documented formula, face by face, recomputed with numpy: the
             # wall faces are the inner faces of the first layer (same order).
@@ -293,10 +295,16 @@ orders = {}
 for path in PATHS:
     print(path + ":")
     for q, label in (("viscous", "4 pi mu R U"), ("force", "6 pi mu R U"), ("pressure", "2 pi mu R U")):
-        band, p = BANDS[q]
+        band, p = PATH_BANDS.get(path, {}).get(q, BANDS[q])
         orders[(path, q)] = check_convergence("%s %s" % (path, q), errors[path][q], band, p,
                                               src + ": " + label)
 
+# Printed, not asserted: the largest face errors sit in the rows next to the
+# poles, whose cells' aspect ratio grows like n (width R sin(theta) dphi), so
+# the second-order constant grows there; the friction drag, asserted above,
+# and the cylinder of test_shear_slabs.py measure the order.
+print("wall fit, face by face: max |tau - tau_exact|/max|tau_exact| %s (n = %s)" % (
+    " ".join("%.3e" % e for e in face_errors), LEVELS))
 print("Observed orders of the friction drag (n = 16..64): " + ", ".join(
     "%s %.2f" % (path, orders[(path, "viscous")]) for path in PATHS))
 print("Finest friction-drag errors (n = 64): " + ", ".join(

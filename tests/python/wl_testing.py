@@ -129,8 +129,19 @@ def close_arrays(label, got, expected, rtol=0.0, atol=0.0, source=""):
     assert err <= atol + rtol * scale, "%s: |err| = %g exceeds tolerance" % (label, err)
 
 
+# Warnings Shear Projection gives by design (vtkShearProjection.h), which a
+# test that uses the setting expects: a gradient array taken on the volume is
+# not a wall gradient; without Walls every boundary face is a wall.
+NOTE_GRADIENT_ARRAY = "is taken from the volume"
+NOTE_DEFAULT_WALLS = "no walls chosen"
+
+
 class Capture:
     """ErrorEvent and WarningEvent messages of a VTK object (or of a proxy's)."""
+
+    def unexpected(self, *notes):
+        """The warnings that hold none of the given documented notes."""
+        return [w for w in self.warnings if not any(n in w for n in notes)]
 
     def __init__(self, obj):
         from vtkmodules.util.misc import calldata_type

@@ -29,7 +29,23 @@
  * is Degenerate. For a stencil stretched by an aspect ratio AR along a
  * direction oblique to the axes the scaled determinant is about 4/AR^2, so
  * the default 1e-12 (double) accepts aspect ratios up to about 1e6.
+ *
+ * Rank-deficient neighbourhoods (LeastSquaresGradientInSpan). A mesh one cell
+ * thick, as 2-D cases are stored, has every neighbour of a cell in the slab's
+ * mid-plane: the neighbours span two directions, and the derivative across
+ * the slab is not determined by the data. LeastSquaresGradientInSpan then
+ * solves in the subspace the neighbours span: with the eigen-decomposition
+ * A = sum_k lambda_k v_k v_k^T, the rows are
+ *   g_i = sum over kept k of (v_k . b_i / lambda_k) v_k,
+ * the least-squares solution of minimum norm, whose derivative along every
+ * dropped direction is zero (for a slab: no variation across it, which is
+ * what a 2-D case means). A direction is kept when its eigenvalue is above
+ * the coordinate-rounding floor (64 eps times the largest coordinate,
+ * squared, times the sum of weights) and above 1e-14 of the largest (the
+ * accuracy of the decomposition). The rank (1, 2 or 3) is returned so that
+ * the caller can say how often it happened.
  */
+#include "wallloads/SmallMatrix.h"
 #include "wallloads/Vector3.h"
 
 #include <algorithm>
@@ -191,6 +207,91 @@ GradientStatus LeastSquaresGradient(const T x0[3], const T u0[3], const T* xk, c
     G[3 * i + 2] = y2 * s[2];
   }
   return AllFinite(G, 9) ? GradientStatus::Ok : fail(GradientStatus::BadInput);
+}
+
+/**
+ * As LeastSquaresGradient, but a neighbourhood spanning fewer than three
+ * directions gives the gradient in the spanned subspace (see the header
+ * comment) instead of Degenerate. `rank` is 3 for a full solve, 1 or 2 for a
+ * reduced one, 0 otherwise. Degenerate only without any direction above the
+ * floors (no neighbour, or all at x0).
+ */
+template <typename T>
+GradientStatus LeastSquaresGradientInSpan(const T x0[3], const T u0[3], const T* xk, const T* uk,
+  const T* wk, int numNeighbours, T G[9], int& rank, const WallConstraint<T>* wall = nullptr)
+{
+  rank = 0;
+  const GradientStatus full = LeastSquaresGradient(x0, u0, xk, uk, wk, numNeighbours, G, wall);
+  if (full != GradientStatus::Degenerate)
+  {
+    rank = full == GradientStatus::Ok ? 3 : 0;
+    return full;
+  }
+  // The same sums as the full solve (inputs already validated there).
+  T A[9] = { 0, 0, 0, 0, 0, 0, 0, 0, 0 };
+  T B[3][3] = { { 0, 0, 0 }, { 0, 0, 0 }, { 0, 0, 0 } };
+  T weights = 0;
+  T reach = std::max(std::abs(x0[0]), std::max(std::abs(x0[1]), std::abs(x0[2])));
+  auto addRow = [&](const T* x, const T* u, T w) {
+    const T dx[3] = { x[0] - x0[0], x[1] - x0[1], x[2] - x0[2] };
+    const T du[3] = { u[0] - u0[0], u[1] - u0[1], u[2] - u0[2] };
+    for (int r = 0; r < 3; ++r)
+    {
+      for (int c = r; c < 3; ++c)
+      {
+        A[3 * r + c] += w * dx[r] * dx[c];
+      }
+      for (int i = 0; i < 3; ++i)
+      {
+        B[i][r] += w * du[i] * dx[r];
+      }
+    }
+    weights += w;
+    reach = std::max(reach, std::max(std::abs(x[0]), std::max(std::abs(x[1]), std::abs(x[2]))));
+  };
+  for (int k = 0; k < numNeighbours; ++k)
+  {
+    addRow(xk + 3 * k, uk + 3 * k, wk ? wk[k] : T(1));
+  }
+  if (wall && wall->Point && wall->Value)
+  {
+    addRow(wall->Point, wall->Value, wall->Weight);
+  }
+  T lambda[3], V[9];
+  SymmetricEigen3(A, lambda, V);
+  const T floor = T(64) * std::numeric_limits<T>::epsilon() * reach;
+  const T least = std::max(floor * floor * weights, T(1e-14) * lambda[0]);
+  for (int i = 0; i < 9; ++i)
+  {
+    G[i] = T(0);
+  }
+  for (int k = 0; k < 3; ++k)
+  {
+    if (!(lambda[k] > least))
+    {
+      continue;
+    }
+    ++rank;
+    const T v[3] = { V[k], V[3 + k], V[6 + k] };
+    for (int i = 0; i < 3; ++i)
+    {
+      const T c = (v[0] * B[i][0] + v[1] * B[i][1] + v[2] * B[i][2]) / lambda[k];
+      for (int j = 0; j < 3; ++j)
+      {
+        G[3 * i + j] += c * v[j];
+      }
+    }
+  }
+  if (rank == 0 || !AllFinite(G, 9))
+  {
+    rank = 0;
+    for (int i = 0; i < 9; ++i)
+    {
+      G[i] = std::numeric_limits<T>::quiet_NaN();
+    }
+    return GradientStatus::Degenerate;
+  }
+  return GradientStatus::Ok;
 }
 
 } // namespace wallloads

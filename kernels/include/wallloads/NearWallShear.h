@@ -18,7 +18,9 @@
  *     recalled from memory), so at zero pressure gradient (a flat plate) the
  *     error is third order.
  *
- * (b) Wall fit (two or more samples, second order): weighted least squares
+ * (b) One-dimensional wall fit, for samples on one line along the normal
+ *     (Shear Projection's Wall fit method is the multi-dimensional fit of
+ *     WallFit.h, which needs no stacked cells): weighted least squares
  *     of each tangential component of u_i - u_W over the samples (d_i) by the
  *     profile u_t(d) = a d + b d^2, which has no slip built in; tau_w = mu_eff a.
  *     Exact for parabolic profiles (plane Poiseuille flow); otherwise its

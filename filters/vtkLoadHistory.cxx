@@ -165,9 +165,11 @@ Row Analyse(const std::vector<double>& time, const std::vector<double>& series, 
   {
     first = static_cast<std::size_t>(std::lower_bound(t.begin(), t.end(), start) - t.begin());
   }
-  else
+  else if (!ComputeBasicStatistics(y.data(), y.size()).Constant)
   {
-    first = Mser5Truncation(y.data(), y.size()); // White 1997; Franklin & White 2008
+    // White 1997; Franklin & White 2008. A series constant but for
+    // round-off is not truncated (MSER would pick a point in the noise).
+    first = Mser5Truncation(y.data(), y.size());
   }
   Row row;
   const std::size_t n = y.size() - std::min(first, y.size());

@@ -304,7 +304,8 @@ T LombScargleAt(const T* t, const T* y, std::size_t n, T variance, T f)
 /// singular. `explained` is the sum of squares the fit explains for y of
 /// zero mean: coefficients dotted with X^T y.
 template <typename T>
-bool FitSinusoid(const T* t, const T* y, std::size_t n, T w, T& a, T& b, T& explained)
+bool FitSinusoid(
+  const T* t, const T* y, std::size_t n, T w, T& a, T& b, T& explained, T* offset = nullptr)
 {
   T m[3][4] = {};
   for (std::size_t i = 0; i < n; ++i)
@@ -354,7 +355,35 @@ bool FitSinusoid(const T* t, const T* y, std::size_t n, T w, T& a, T& b, T& expl
   a = m[1][3] / m[1][1];
   b = m[2][3] / m[2][2];
   explained = c * rhs[0] + a * rhs[1] + b * rhs[2];
+  if (offset)
+  {
+    *offset = c;
+  }
   return true;
+}
+
+/// Derivative of the explained sum of squares E(w) of the floating-mean
+/// sinusoid with respect to w. By the envelope theorem (the coefficients
+/// are optimal) dE/dw = -dRSS/dw = 2 sum r_i dyhat_i/dw, r the residuals,
+/// dyhat/dw = t (b cos wt - a sin wt). Its sign change locates the peak to
+/// round-off (E itself is flat there: comparing E locates it only to the
+/// square root of the round-off).
+template <typename T>
+T FloatingMeanSlope(const T* t, const T* y, std::size_t n, T w)
+{
+  T a, b, e, c;
+  if (!FitSinusoid(t, y, n, w, a, b, e, &c))
+  {
+    return std::numeric_limits<T>::quiet_NaN();
+  }
+  T d = 0;
+  for (std::size_t i = 0; i < n; ++i)
+  {
+    const T cw = std::cos(w * t[i]), sw = std::sin(w * t[i]);
+    const T r = y[i] - (c + a * cw + b * sw);
+    d += r * t[i] * (b * cw - a * sw);
+  }
+  return 2 * d;
 }
 
 template <typename T>
@@ -484,7 +513,7 @@ DominantSinusoid<T> DominantFrequency(const T* t, const T* y, std::size_t n, int
   T x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo);
   T p1 = detail::FloatingMeanPower(pt, py, n, x1);
   T p2 = detail::FloatingMeanPower(pt, py, n, x2);
-  for (int it = 0; it < 100 && hi - lo > T(1e-14) * hi; ++it)
+  for (int it = 0; it < 100 && hi - lo > T(1e-4) * df; ++it)
   {
     if (p1 > p2)
     {
@@ -503,7 +532,36 @@ DominantSinusoid<T> DominantFrequency(const T* t, const T* y, std::size_t n, int
       p2 = detail::FloatingMeanPower(pt, py, n, x2);
     }
   }
-  const T f = p1 > p2 ? x1 : x2;
+  // Polish: bisection on the sign of dE/dw (FloatingMeanSlope), which
+  // locates the peak to round-off, so that data equal to round-off (MPI
+  // ranks, thread counts) give frequencies equal to round-off.
+  T f = p1 > p2 ? x1 : x2;
+  {
+    T a0 = lo, b0 = hi;
+    T da = detail::FloatingMeanSlope(pt, py, n, twoPi * a0);
+    const T db = detail::FloatingMeanSlope(pt, py, n, twoPi * b0);
+    if (da > 0 && db < 0)
+    {
+      for (int it = 0; it < 200 && b0 - a0 > 4 * std::numeric_limits<T>::epsilon() * b0; ++it)
+      {
+        const T mid = (a0 + b0) / 2;
+        const T dm = detail::FloatingMeanSlope(pt, py, n, twoPi * mid);
+        if (dm > 0)
+        {
+          a0 = mid;
+        }
+        else if (dm < 0)
+        {
+          b0 = mid;
+        }
+        else
+        {
+          a0 = b0 = mid;
+        }
+      }
+      f = (a0 + b0) / 2;
+    }
+  }
   r.Frequency = f;
   r.Power = detail::LombScargleAt(pt, py, n, var, f);
   T a = 0, b = 0, explained = 0;

@@ -362,6 +362,16 @@ int vtkLoadHistory::RequestData(
           "numeric field data of one tuple (Load Integration's output port 0).";
       }
     }
+    // A value set without its switch is a common scripting slip: say so.
+    if (!this->UseCustomTimeRange && (this->TimeRange[0] != 0 || this->TimeRange[1] != 0))
+    {
+      Notice(this, "TimeRange is set but UseCustomTimeRange is off: every time step is visited.");
+    }
+    if (!this->UseCustomStatisticsStart && this->StatisticsStart != 0)
+    {
+      Notice(this, "StatisticsStart is set but UseCustomStatisticsStart is off: the statistics "
+                   "start at each quantity's MSER-5 truncation point.");
+    }
     double failed = error.empty() ? 0.0 : 1.0;
     GlobalMax(&failed, 1);
     if (failed > 0)

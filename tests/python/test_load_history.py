@@ -185,4 +185,13 @@ T.expect("the output is not time dependent (no time steps in its information)",
          not lh.GetClientSideObject().GetOutputInformation(0).Has(SDDP.TIME_STEPS()))
 lh.UpdatePipeline(time=float(t[100]))
 T.expect("another animation time does not revisit the steps", len(executions) == 0, str(len(executions)))
+# In the GUI the history opens in a line chart (Time on the x axis) and the
+# statistics in a spreadsheet (the XML's view hints).
+from paraview.modules.vtkRemotingViews import vtkSMParaViewPipelineControllerWithRendering  # noqa: E402
+controller = vtkSMParaViewPipelineControllerWithRendering()
+T.expect("history opens in a line chart view, statistics in a spreadsheet",
+         (controller.GetPreferredViewType(lh.SMProxy, 0), controller.GetPreferredViewType(lh.SMProxy, 1))
+         == ("XYChartView", "SpreadSheetView"))
+import wallloads.WallLoadsFilters as W  # noqa: E402
+T.expect("the wrapped Python module has vtkLoadHistory", W.vtkLoadHistory().GetNumberOfOutputPorts() == 2)
 T.done("test_load_history")

@@ -185,6 +185,16 @@ T.expect("the output is not time dependent (no time steps in its information)",
          not lh.GetClientSideObject().GetOutputInformation(0).Has(SDDP.TIME_STEPS()))
 lh.UpdatePipeline(time=float(t[100]))
 T.expect("another animation time does not revisit the steps", len(executions) == 0, str(len(executions)))
+# Bad input: nothing numeric to record (a plain surface without field data)
+# is a clear error, no crash, empty tables.
+lh_bad = simple.LoadHistory(Input=simple.Sphere())
+bad_capture = T.Capture(lh_bad)
+lh_bad.UpdatePipeline()
+T.contains_all("no numeric quantity: an error that says what is expected", " ".join(bad_capture.errors),
+               ["holds no numeric quantity", "Load Integration"])
+T.expect("no numeric quantity: empty tables",
+         lh_bad.GetClientSideObject().GetOutputDataObject(0).GetNumberOfRows() == 0)
+
 # In the GUI the history opens in a line chart (Time on the x axis) and the
 # statistics in a spreadsheet (the XML's view hints).
 from paraview.modules.vtkRemotingViews import vtkSMParaViewPipelineControllerWithRendering  # noqa: E402

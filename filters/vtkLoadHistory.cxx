@@ -290,6 +290,7 @@ int vtkLoadHistory::RequestInformation(
   using SDDP = vtkStreamingDemandDrivenPipeline;
   vtkInformation* inInfo = inputVector[0]->GetInformationObject(0);
   Loop& loop = *this->Steps;
+  loop.Reset();
   loop.Times.clear();
   if (inInfo->Has(SDDP::TIME_STEPS()))
   {
@@ -341,6 +342,15 @@ int vtkLoadHistory::RequestData(
   Loop& loop = *this->Steps;
   const bool rank0 = ProcessRank() == 0;
   const std::size_t numSteps = std::max<std::size_t>(1, loop.Times.size());
+  if (!request->Has(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING()) && loop.Current != 0)
+  {
+    // A new update while the previous one stopped part way (an upstream
+    // error or an abort): start again from the first step, recording nothing
+    // of this pass (it ran upstream at the step where the last one stopped).
+    loop.Reset();
+    request->Set(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING(), 1);
+    return 1;
+  }
   if (loop.Current == 0)
   {
     loop.Reset();

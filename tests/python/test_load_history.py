@@ -185,6 +185,20 @@ T.expect("the output is not time dependent (no time steps in its information)",
          not lh.GetClientSideObject().GetOutputInformation(0).Has(SDDP.TIME_STEPS()))
 lh.UpdatePipeline(time=float(t[100]))
 T.expect("another animation time does not revisit the steps", len(executions) == 0, str(len(executions)))
+# Sequential and STDThread SMP backends (the statistics are computed per
+# quantity in a vtkSMPTools loop): the same tables to the last bit.
+from vtkmodules.vtkCommonCore import vtkSMPTools  # noqa: E402
+tables = {}
+for backend in ("Sequential", "STDThread"):
+    vtkSMPTools.SetBackend(backend)
+    lh_b = simple.LoadHistory(Input=simple.OutputPort(li, 1), ReferenceLength=0.3, ReferenceSpeed=2.0)
+    lh_b.UpdatePipeline()
+    st = lh_b.GetClientSideObject().GetOutputDataObject(1)
+    tables[backend] = np.array([[st.GetValue(r, c).ToDouble() for c in range(1, st.GetNumberOfColumns())]
+                                for r in range(st.GetNumberOfRows())])
+T.expect("Sequential and STDThread give the same statistics",
+         np.array_equal(tables["Sequential"], tables["STDThread"], equal_nan=True))
+
 # Bad input: nothing numeric to record (a plain surface without field data)
 # is a clear error, no crash, empty tables.
 lh_bad = simple.LoadHistory(Input=simple.Sphere())

@@ -393,6 +393,25 @@ int vtkLoadHistory::RequestData(
     }
   }
 
+  // An abort request (the GUI's progress bar) is honoured between steps, all
+  // ranks agreeing (one reduction per step; the upstream reduces per step
+  // anyway): no output then.
+  double abort = this->GetAbortExecute() ? 1.0 : 0.0;
+  GlobalMax(&abort, 1);
+  if (abort > 0)
+  {
+    request->Remove(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING());
+    history->Initialize();
+    statistics->Initialize();
+    if (rank0)
+    {
+      vtkWarningMacro("Load History: aborted at step " << loop.Current + 1 << " of " << numSteps
+                                                       << "; no output.");
+    }
+    loop.Reset();
+    return 1;
+  }
+
   // Record this step.
   const double requested = loop.Current < loop.Times.size() ? loop.Times[loop.Current] : 0.0;
   double time = requested;

@@ -50,6 +50,10 @@
  * is recorded once (its data time, else 0). The output is not time
  * dependent (the time steps are removed from its information).
  *
+ * An abort request is honoured between steps (no output then, with a
+ * warning); an update that follows one stopped part way (an upstream error)
+ * starts again from the first step.
+ *
  * MPI: every rank drives its upstream through the same steps (the upstream
  * reduces across ranks at each step); the tables are filled on rank 0 only
  * (Load Integration's tables live on rank 0, its field-data totals are global

@@ -199,6 +199,28 @@ for backend in ("Sequential", "STDThread"):
 T.expect("Sequential and STDThread give the same statistics",
          np.array_equal(tables["Sequential"], tables["STDThread"], equal_nan=True))
 
+# Abort between steps (as the GUI's progress bar does): no output, a
+# warning; the next update visits every step again.
+algo = lh_part.GetClientSideObject()
+
+
+def abort_early(o, e):
+    if o.GetProgress() > 0.3:
+        o.SetAbortExecute(1)
+
+
+tag = algo.AddObserver(vtkCommand.ProgressEvent, abort_early)
+abort_capture = T.Capture(lh_part)
+lh_part.MarkModified(lh_part)
+lh_part.UpdatePipeline()
+T.expect("abort: no output and a warning", algo.GetOutputDataObject(0).GetNumberOfRows() == 0 and
+         any("aborted at step" in w for w in abort_capture.warnings))
+algo.RemoveObserver(tag)
+algo.SetAbortExecute(0)
+lh_part.MarkModified(lh_part)
+lh_part.UpdatePipeline()
+T.expect("after an abort the next update is complete", algo.GetOutputDataObject(0).GetNumberOfRows() == chosen.size)
+
 # Bad input: nothing numeric to record (a plain surface without field data)
 # is a clear error, no crash, empty tables.
 lh_bad = simple.LoadHistory(Input=simple.Sphere())

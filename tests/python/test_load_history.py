@@ -211,14 +211,14 @@ def abort_early(o, e):
 
 tag = algo.AddObserver(vtkCommand.ProgressEvent, abort_early)
 abort_capture = T.Capture(lh_part)
-lh_part.MarkModified(lh_part)
-lh_part.UpdatePipeline()
+algo.Modified()
+algo.Update()
 T.expect("abort: no output and a warning", algo.GetOutputDataObject(0).GetNumberOfRows() == 0 and
          any("aborted at step" in w for w in abort_capture.warnings))
 algo.RemoveObserver(tag)
 algo.SetAbortExecute(0)
-lh_part.MarkModified(lh_part)
-lh_part.UpdatePipeline()
+algo.Modified()
+algo.Update()
 T.expect("after an abort the next update is complete", algo.GetOutputDataObject(0).GetNumberOfRows() == chosen.size)
 
 # Bad input: nothing numeric to record (a plain surface without field data)

@@ -185,6 +185,38 @@ T.expect("the output is not time dependent (no time steps in its information)",
          not lh.GetClientSideObject().GetOutputInformation(0).Has(SDDP.TIME_STEPS()))
 lh.UpdatePipeline(time=float(t[100]))
 T.expect("another animation time does not revisit the steps", len(executions) == 0, str(len(executions)))
+# Standard error of the mean through the whole chain, on an AR(1) series
+# g_i = MEAN + x_i, x_i = phi x_{i-1} + e_i, e_i ~ N(0, s^2), started
+# stationary (derivation as in tests/kernels/TimeSeriesStatisticsTest.cxx:
+# rho(k) = phi^k, tau_int = 1 + 2 sum phi^k = (1 + phi)/(1 - phi), so
+# Var(mean) = tau_int Var(x) / n = s^2 / ((1 - phi)^2 n)), phi = 0.8, s = 0.05,
+# n = 1000 uneven steps. The estimate's relative scatter is about
+# (1/2) sqrt(2 (2M + 1) / n) = 24 % with Sokal's window M ~ 5 tau = 45
+# (Sokal 1997 eq. 3.19): within a factor 1.5 of the analytic value (about 2
+# sd), on the samples of the statistics window (n_w of them).
+rng = np.random.default_rng(31)
+phi, s_e, n_ar = 0.8, 0.05, 1000
+x = np.empty(n_ar)
+x[0] = rng.normal(0.0, s_e / np.sqrt(1 - phi * phi))
+for i in range(1, n_ar):
+    x[i] = phi * x[i - 1] + rng.normal(0.0, s_e)
+t_ar = np.cumsum(np.r_[0.0, rng.uniform(0.5, 1.5, n_ar - 1)]) * 0.01
+ar_pvd = H.write_series(out, "ar1", t_ar, H.MEAN + x)
+ar_li = simple.LoadIntegration(Input=simple.WallTraction(Input=simple.PVDReader(FileName=ar_pvd),
+                                                         Pressure=["CELLS", "p"], ShearSource="None"))
+ar_lh = simple.LoadHistory(Input=simple.OutputPort(ar_li, 1))
+ar_lh.UpdatePipeline()
+ar = stat_row(ar_lh.GetClientSideObject().GetOutputDataObject(1), "Total: Drag")
+n_w = ar["Samples"]
+sem_exact = C * s_e / ((1 - phi) * np.sqrt(n_w))
+print("AR(1): SEM %.4e, analytic %.4e (ratio %.3f), tau %.4f s (mean step %.4f s, analytic %.1f steps)" % (
+    ar["Standard Error Of Mean"], sem_exact, ar["Standard Error Of Mean"] / sem_exact,
+    ar["Integrated Autocorrelation Time"], np.diff(t_ar).mean(), (1 + phi) / (1 - phi)))
+T.expect("AR(1) through the chain: SEM within a factor 1.5 of s / ((1 - phi) sqrt(n))",
+         sem_exact / 1.5 <= ar["Standard Error Of Mean"] <= 1.5 * sem_exact)
+T.expect("AR(1): the true mean within 3 standard errors",
+         abs(ar["Mean"] / C - H.MEAN) <= 3 * ar["Standard Error Of Mean"] / C)
+
 # Sequential and STDThread SMP backends (the statistics are computed per
 # quantity in a vtkSMPTools loop): the same tables to the last bit.
 from vtkmodules.vtkCommonCore import vtkSMPTools  # noqa: E402

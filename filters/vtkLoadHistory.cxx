@@ -336,90 +336,122 @@ int vtkLoadHistory::RequestUpdateExtent(
 int vtkLoadHistory::RequestData(
   vtkInformation* request, vtkInformationVector** inputVector, vtkInformationVector* outputVector)
 {
+  using SDDP = vtkStreamingDemandDrivenPipeline;
   vtkDataObject* input = vtkDataObject::GetData(inputVector[0], 0);
   vtkTable* history = vtkTable::GetData(outputVector, 0);
   vtkTable* statistics = vtkTable::GetData(outputVector, 1);
   Loop& loop = *this->Steps;
-  const bool rank0 = ProcessRank() == 0;
-  const std::size_t numSteps = std::max<std::size_t>(1, loop.Times.size());
-  if (!request->Has(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING()) && loop.Current != 0)
+  if (!request->Has(SDDP::CONTINUE_EXECUTING()) && loop.Current != 0)
   {
     // A new update while the previous one stopped part way (an upstream
-    // error or an abort): start again from the first step, recording nothing
-    // of this pass (it ran upstream at the step where the last one stopped).
+    // error): start again from the first step, recording nothing of this pass.
     loop.Reset();
-    request->Set(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING(), 1);
+    request->Set(SDDP::CONTINUE_EXECUTING(), 1);
     return 1;
   }
-  if (loop.Current == 0)
+  if (loop.Current == 0 && !this->ValidateFirstStep(input, history, statistics))
   {
+    request->Remove(SDDP::CONTINUE_EXECUTING());
     loop.Reset();
-    // Validate once, at the first step, and agree over all ranks (one
-    // reduction) before any fails. Only rank 0 records.
-    std::string error;
-    if (!input || !history || !statistics)
-    {
-      error = "Load History: missing input or output.";
-    }
-    else if (rank0)
-    {
-      Sample first;
-      Collect(input, first);
-      if (first.Names.empty())
-      {
-        error = std::string("Load History: the input (") + input->GetClassName() +
-          ") holds no numeric quantity: expected a table (Load Integration's Load Table) or "
-          "numeric field data of one tuple (Load Integration's output port 0).";
-      }
-    }
-    // A value set without its switch is a common scripting slip: say so.
-    if (!this->UseCustomTimeRange && (this->TimeRange[0] != 0 || this->TimeRange[1] != 0))
-    {
-      Notice(this, "TimeRange is set but UseCustomTimeRange is off: every time step is visited.");
-    }
-    if (!this->UseCustomStatisticsStart && this->StatisticsStart != 0)
-    {
-      Notice(this, "StatisticsStart is set but UseCustomStatisticsStart is off: the statistics "
-                   "start at each quantity's MSER-5 truncation point.");
-    }
-    double failed = error.empty() ? 0.0 : 1.0;
-    GlobalMax(&failed, 1);
-    if (failed > 0)
-    {
-      ReportAgreedFailure(this, error);
-      request->Remove(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING());
-      loop.Reset();
-      return 0;
-    }
+    return 0;
   }
-
-  // An abort request (the GUI's progress bar) is honoured between steps, all
-  // ranks agreeing (one reduction per step; the upstream reduces per step
-  // anyway): no output then.
-  double abort = this->GetAbortExecute() ? 1.0 : 0.0;
-  GlobalMax(&abort, 1);
-  if (abort > 0)
+  if (this->AbortAgreed())
   {
-    request->Remove(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING());
+    request->Remove(SDDP::CONTINUE_EXECUTING());
     history->Initialize();
     statistics->Initialize();
-    if (rank0)
-    {
-      vtkWarningMacro("Load History: aborted at step " << loop.Current + 1 << " of " << numSteps
-                                                       << "; no output.");
-    }
     loop.Reset();
     return 1;
   }
+  this->RecordStep(input);
+  if (loop.Current + 1 < std::max<std::size_t>(1, loop.Times.size()))
+  {
+    ++loop.Current;
+    request->Set(SDDP::CONTINUE_EXECUTING(), 1);
+    return 1;
+  }
+  // Last step: the two tables (rank 0), then reset for the next update.
+  request->Remove(SDDP::CONTINUE_EXECUTING());
+  history->Initialize();
+  statistics->Initialize();
+  if (ProcessRank() == 0)
+  {
+    this->FillTables(history, statistics);
+  }
+  loop.Reset();
+  return 1;
+}
 
-  // Record this step.
-  const double requested = loop.Current < loop.Times.size() ? loop.Times[loop.Current] : 0.0;
-  double time = requested;
+//------------------------------------------------------------------------------
+bool vtkLoadHistory::ValidateFirstStep(vtkDataObject* input, vtkTable* history, vtkTable* statistics)
+{
+  // Checked once, at the first step, and agreed over all ranks (one
+  // reduction) before any fails. Only rank 0 records (and checks).
+  this->Steps->Reset();
+  std::string error;
+  if (!input || !history || !statistics)
+  {
+    error = "Load History: missing input or output.";
+  }
+  else if (ProcessRank() == 0)
+  {
+    Sample first;
+    Collect(input, first);
+    if (first.Names.empty())
+    {
+      error = std::string("Load History: the input (") + input->GetClassName() +
+        ") holds no numeric quantity: expected a table (Load Integration's Load Table) or "
+        "numeric field data of one tuple (Load Integration's output port 0).";
+    }
+  }
+  // A value set without its switch is a common scripting slip: say so.
+  if (!this->UseCustomTimeRange && (this->TimeRange[0] != 0 || this->TimeRange[1] != 0))
+  {
+    Notice(this, "TimeRange is set but UseCustomTimeRange is off: every time step is visited.");
+  }
+  if (!this->UseCustomStatisticsStart && this->StatisticsStart != 0)
+  {
+    Notice(this, "StatisticsStart is set but UseCustomStatisticsStart is off: the statistics "
+                 "start at each quantity's MSER-5 truncation point.");
+  }
+  double failed = error.empty() ? 0.0 : 1.0;
+  GlobalMax(&failed, 1);
+  if (failed > 0)
+  {
+    ReportAgreedFailure(this, error);
+    return false;
+  }
+  return true;
+}
+
+//------------------------------------------------------------------------------
+bool vtkLoadHistory::AbortAgreed()
+{
+  // An abort request (the GUI's progress bar) is honoured between steps, all
+  // ranks agreeing (one reduction per step; the upstream reduces per step
+  // anyway).
+  double abort = this->GetAbortExecute() ? 1.0 : 0.0;
+  GlobalMax(&abort, 1);
+  if (abort > 0 && ProcessRank() == 0)
+  {
+    vtkWarningMacro("Load History: aborted at step "
+      << this->Steps->Current + 1 << " of " << std::max<std::size_t>(1, this->Steps->Times.size())
+      << "; no output.");
+  }
+  return abort > 0;
+}
+
+//------------------------------------------------------------------------------
+void vtkLoadHistory::RecordStep(vtkDataObject* input)
+{
+  Loop& loop = *this->Steps;
+  const std::size_t numSteps = std::max<std::size_t>(1, loop.Times.size());
+  double time = loop.Current < loop.Times.size() ? loop.Times[loop.Current] : 0.0;
   if (input->GetInformation()->Has(vtkDataObject::DATA_TIME_STEP()))
   {
     time = input->GetInformation()->Get(vtkDataObject::DATA_TIME_STEP());
   }
-  if (rank0)
+  if (ProcessRank() == 0)
   {
     Sample sample;
     Collect(input, sample);
@@ -429,23 +461,6 @@ int vtkLoadHistory::RequestData(
     Notice(this, os.str());
   }
   this->UpdateProgress(static_cast<double>(loop.Current + 1) / static_cast<double>(numSteps));
-  if (loop.Current + 1 < numSteps)
-  {
-    ++loop.Current;
-    request->Set(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING(), 1);
-    return 1;
-  }
-  request->Remove(vtkStreamingDemandDrivenPipeline::CONTINUE_EXECUTING());
-
-  // Last step: the two tables (rank 0), then reset for the next Update.
-  history->Initialize();
-  statistics->Initialize();
-  if (rank0)
-  {
-    this->FillTables(history, statistics);
-  }
-  loop.Reset();
-  return 1;
 }
 
 //------------------------------------------------------------------------------

@@ -68,6 +68,7 @@
 
 #include <memory> // for std::unique_ptr
 
+class vtkDataObject;
 class vtkTable;
 
 class WALLLOADSFILTERS_EXPORT vtkLoadHistory : public vtkTableAlgorithm
@@ -142,6 +143,12 @@ private:
 
   /// The history and statistics tables from what was recorded (rank 0).
   void FillTables(vtkTable* history, vtkTable* statistics);
+  /// First step: something to record (rank 0), agreed over all ranks.
+  bool ValidateFirstStep(vtkDataObject* input, vtkTable* history, vtkTable* statistics);
+  /// Whether an abort was requested on any rank (one reduction).
+  bool AbortAgreed();
+  /// Record the current step's values (rank 0) and report progress.
+  void RecordStep(vtkDataObject* input);
 };
 
 #endif

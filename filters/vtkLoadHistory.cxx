@@ -62,6 +62,7 @@ struct Sample
 {
   std::vector<std::string> Names, Units;
   std::vector<double> Values;
+  std::map<std::string, int> Seen;
 
   void Add(const std::string& name, vtkDataArray* array, vtkIdType tuple)
   {
@@ -78,6 +79,13 @@ struct Sample
       else if (nc > 1)
       {
         n += " " + std::to_string(c);
+      }
+      // Regions (or blocks) may share a name: the second "Wing: Drag" is
+      // "Wing: Drag (2)", in the same order at every step.
+      const int seen = ++this->Seen[n];
+      if (seen > 1)
+      {
+        n += " (" + std::to_string(seen) + ")";
       }
       this->Names.push_back(n);
       this->Units.emplace_back(unit ? unit : "");
@@ -206,6 +214,8 @@ Row Analyse(const std::vector<double>& time, const std::vector<double>& series, 
 struct vtkLoadHistory::Loop
 {
   std::vector<double> Times; ///< steps to visit (empty: the input has no time steps)
+  std::size_t InputSteps = 0; ///< time steps of the input
+  double InputRange[2] = { 0, 0 };
   std::size_t Current = 0;   ///< index of the step being executed
   // Recorded on rank 0: quantity names, units, and a column per quantity.
   std::vector<double> SampleTimes;
@@ -292,10 +302,17 @@ int vtkLoadHistory::RequestInformation(
   Loop& loop = *this->Steps;
   loop.Reset();
   loop.Times.clear();
+  loop.InputSteps = 0;
   if (inInfo->Has(SDDP::TIME_STEPS()))
   {
     const int count = inInfo->Length(SDDP::TIME_STEPS());
     const double* steps = inInfo->Get(SDDP::TIME_STEPS());
+    loop.InputSteps = static_cast<std::size_t>(count);
+    if (count > 0)
+    {
+      loop.InputRange[0] = steps[0];
+      loop.InputRange[1] = steps[count - 1];
+    }
     int kept = 0;
     for (int i = 0; i < count; ++i)
     {
@@ -389,9 +406,18 @@ bool vtkLoadHistory::ValidateFirstStep(vtkDataObject* input, vtkTable* history, 
   // reduction) before any fails. Only rank 0 records (and checks).
   this->Steps->Reset();
   std::string error;
+  const Loop& loop = *this->Steps;
   if (!input || !history || !statistics)
   {
     error = "Load History: missing input or output.";
+  }
+  else if (loop.InputSteps > 0 && loop.Times.empty())
+  {
+    std::ostringstream os;
+    os << "Load History: Time Range [" << this->TimeRange[0] << ", " << this->TimeRange[1]
+       << "] s holds none of the input's " << loop.InputSteps << " time steps ("
+       << loop.InputRange[0] << " to " << loop.InputRange[1] << " s).";
+    error = os.str();
   }
   else if (ProcessRank() == 0)
   {

@@ -117,7 +117,7 @@ void Collect(vtkDataObject* input, Sample& sample)
     for (vtkIdType r = 0; r < rows; ++r)
     {
       std::string prefix;
-      if (regions)
+      if (regions && r < regions->GetNumberOfValues())
       {
         prefix = regions->GetValue(r) + ": ";
       }
@@ -128,7 +128,9 @@ void Collect(vtkDataObject* input, Sample& sample)
       for (vtkIdType c = 0; c < table->GetNumberOfColumns(); ++c)
       {
         auto* array = vtkDataArray::SafeDownCast(table->GetColumn(c));
-        if (array && array->GetName() && !IsLeftOut(array->GetName()))
+        // A column shorter than the table (malformed input) is left out.
+        if (array && array->GetName() && array->GetNumberOfTuples() > r &&
+          !IsLeftOut(array->GetName()))
         {
           sample.Add(prefix + array->GetName(), array, r);
         }

@@ -555,6 +555,8 @@ def random_step(seed, value_seed, as_table):
         a = numpy_to_vtk(values, deep=1)
         a.SetName(["Drag", "Force", "Area", "Region Id", "Lift Coefficient"][k])
         (out.AddColumn if as_table else out.GetFieldData().AddArray)(a)
+    if as_table and out.GetNumberOfColumns() > 1 and rng.random() < 0.1:
+        out.GetColumn(out.GetNumberOfColumns() - 1).SetNumberOfTuples(max(0, rows - 1))  # malformed
     return out
 
 

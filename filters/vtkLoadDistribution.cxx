@@ -1,0 +1,577 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#include "vtkLoadDistribution.h"
+
+#include "WallLoadsColumns.h"
+#include "WallLoadsDefaults.h"
+#include "WallLoadsPipeline.h"
+#include "wallloads/CompensatedSum.h"
+#include "wallloads/FaceGeometry.h"
+#include "wallloads/PolygonBinning.h"
+
+#include "vtkDataSet.h"
+#include "vtkDoubleArray.h"
+#include "vtkFieldData.h"
+#include "vtkInformation.h"
+#include "vtkInformationVector.h"
+#include "vtkIntArray.h"
+#include "vtkObjectFactory.h"
+#include "vtkSMPThreadLocal.h"
+#include "vtkSMPTools.h"
+#include "vtkSmartPointer.h"
+#include "vtkTable.h"
+
+#include <algorithm>
+#include <cmath>
+#include <sstream>
+#include <string>
+#include <utility>
+#include <vector>
+
+vtkStandardNewMacro(vtkLoadDistribution);
+
+namespace
+{
+using namespace wallloads;
+using Sum = CompensatedSum<double>;
+
+/// Running sums of a bin, in the order they are reduced across ranks.
+enum BinSlot : std::size_t
+{
+  AreaSlot = 0,
+  PressureForceSlot = 1, // 3 slots
+  ViscousForceSlot = 4,  // 3 slots
+  MomentSlot = 7,        // 3 slots
+  NumBinSlots = 10
+};
+/// Running sums of the whole input, after the bins' slots.
+enum GlobalSlot : std::size_t
+{
+  FacesSlot = 0,
+  SkippedSlot = 1,
+  OutsideAreaSlot = 2,
+  NumGlobalSlots = 3
+};
+
+/// The settings of one execution (properties, checked and resolved).
+struct Settings
+{
+  double Origin[3], Direction[3], Centre[3];
+  int NumberOfBins = 0;
+  bool CustomRange = false;
+  double Range[2] = { 0, 0 };
+  ResolvedAxes Axes;
+};
+
+/// The checked arrays of one surface leaf.
+struct LeafInputs
+{
+  ArrayView ForceP, ForceV, Area;
+  PointView Points;
+  const unsigned char* Ghosts = nullptr;
+};
+
+/// A face that carries a load: counted (not a ghost), a 2D cell, with finite
+/// forces, area and geometry. Returns 0 for cells that are not faces, -1 for
+/// faces left out (skipped), 1 otherwise (with `frame`, `ids`, `n`).
+template <typename I, typename P>
+int AcceptFace(const LeafInputs& in, const FaceTopology<I>& topo, vtkIdType c, I buffer[4],
+  const I*& ids, int& n, double fp[3], double fv[3], double& area, FaceFrame<double>& frame)
+{
+  if (!IsCountedCell(in.Ghosts, c))
+  {
+    return 0;
+  }
+  n = topo.Corners(c, ids, buffer);
+  if (n == 0)
+  {
+    return 0; // not a face (vertex, line, 3D cell): Wall Traction counted it
+  }
+  for (int k = 0; k < 3; ++k)
+  {
+    fp[k] = in.ForceP.Get(c, k);
+    fv[k] = in.ForceV.Get(c, k);
+  }
+  area = in.Area.Get(c, 0);
+  if (!AllFinite(fp, 3) || !AllFinite(fv, 3) || !std::isfinite(area) ||
+    ComputeFaceFrame<double>(static_cast<const P*>(in.Points.Data), ids, n, frame) !=
+      FaceStatus::Ok)
+  {
+    return -1;
+  }
+  return 1;
+}
+
+/// Extent along the axis of the faces that carry a load.
+template <typename I, typename P>
+void ExtentOfLeaf(const LeafInputs& in, vtkDataSet* ds, const AxisBins<double>& axis, double& lo,
+  double& hi)
+{
+  FaceTopology<I> topo;
+  MakeFaceTopology<I>(ds, topo);
+  const P* points = static_cast<const P*>(in.Points.Data);
+  for (vtkIdType c = 0; c < ds->GetNumberOfCells(); ++c)
+  {
+    I buffer[4];
+    const I* ids = nullptr;
+    int n = 0;
+    double fp[3], fv[3], area;
+    FaceFrame<double> frame;
+    if (AcceptFace<I, P>(in, topo, c, buffer, ids, n, fp, fv, area, frame) != 1)
+    {
+      continue;
+    }
+    for (int k = 0; k < n; ++k)
+    {
+      const double s = axis.Coordinate(points + 3 * ids[k]);
+      lo = std::min(lo, s);
+      hi = std::max(hi, s);
+    }
+  }
+}
+
+/// The face loop: each face's force shared among the bins by clipped area.
+template <typename I, typename P>
+struct BinLoop
+{
+  const LeafInputs& In;
+  const FaceTopology<I>& Topo;
+  const AxisBins<double>& Bins;
+  const double* R0;
+  std::size_t Size;
+  vtkSMPThreadLocal<std::vector<Sum>> Local;
+
+  BinLoop(const LeafInputs& in, const FaceTopology<I>& topo, const AxisBins<double>& bins,
+    const double* r0)
+    : In(in)
+    , Topo(topo)
+    , Bins(bins)
+    , R0(r0)
+    , Size(static_cast<std::size_t>(bins.Count) * NumBinSlots + NumGlobalSlots)
+  {
+  }
+
+  void Initialize() { this->Local.Local().assign(this->Size, Sum()); }
+
+  void operator()(vtkIdType begin, vtkIdType end)
+  {
+    std::vector<Sum>& sums = this->Local.Local();
+    Sum* global = sums.data() + static_cast<std::size_t>(this->Bins.Count) * NumBinSlots;
+    const P* points = static_cast<const P*>(In.Points.Data);
+    for (vtkIdType c = begin; c < end; ++c)
+    {
+      I buffer[4];
+      const I* ids = nullptr;
+      int n = 0;
+      double fp[3], fv[3], area;
+      FaceFrame<double> frame;
+      const int accepted = AcceptFace<I, P>(In, Topo, c, buffer, ids, n, fp, fv, area, frame);
+      if (accepted <= 0)
+      {
+        if (accepted < 0)
+        {
+          global[SkippedSlot].Add(1.0);
+        }
+        continue;
+      }
+      const double inside = BinFace<double>(points, ids, n, frame, this->Bins,
+        [&](int b, const double*, double part, const double centroid[3]) {
+          const double w = part / frame.Area;
+          Sum* s = sums.data() + static_cast<std::size_t>(b) * NumBinSlots;
+          const double arm[3] = { centroid[0] - R0[0], centroid[1] - R0[1], centroid[2] - R0[2] };
+          const double f[3] = { (fp[0] + fv[0]) * w, (fp[1] + fv[1]) * w, (fp[2] + fv[2]) * w };
+          double m[3];
+          Cross(arm, f, m);
+          s[AreaSlot].Add(area * w);
+          for (std::size_t k = 0; k < 3; ++k)
+          {
+            s[PressureForceSlot + k].Add(fp[k] * w);
+            s[ViscousForceSlot + k].Add(fv[k] * w);
+            s[MomentSlot + k].Add(m[k]);
+          }
+        });
+      global[FacesSlot].Add(1.0);
+      global[OutsideAreaSlot].Add(area * (frame.Area - inside) / frame.Area);
+    }
+  }
+
+  void Reduce() {}
+};
+
+template <typename I, typename P>
+void BinLeaf(const LeafInputs& in, vtkDataSet* ds, const AxisBins<double>& bins, const double* r0,
+  std::vector<Sum>& total)
+{
+  FaceTopology<I> topo;
+  MakeFaceTopology<I>(ds, topo);
+  BinLoop<I, P> loop(in, topo, bins, r0);
+  vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
+  for (const std::vector<Sum>& local : loop.Local)
+  {
+    for (std::size_t k = 0; k < total.size(); ++k)
+    {
+      total[k].Merge(local[k]);
+    }
+  }
+}
+
+/// Check the properties (the same on every rank) and resolve the load axes.
+bool ResolveSettings(vtkLoadDistribution* self, vtkFieldData* upstream, Settings& s,
+  std::string& error)
+{
+  self->GetAxisOrigin(s.Origin);
+  self->GetAxisDirection(s.Direction);
+  self->GetMomentCentre(s.Centre);
+  s.NumberOfBins = self->GetNumberOfBins();
+  s.CustomRange = self->GetUseCustomRange() != 0;
+  self->GetRange(s.Range);
+  std::ostringstream os;
+  if (!(Norm(s.Direction) > 0) || !AllFinite(s.Direction, 3))
+  {
+    os << "Axis Direction (" << s.Direction[0] << ", " << s.Direction[1] << ", "
+       << s.Direction[2] << ") must be finite and non-zero.";
+  }
+  else if (!AllFinite(s.Origin, 3) || !AllFinite(s.Centre, 3))
+  {
+    os << "Axis Origin and Moment Centre must be finite.";
+  }
+  else if (s.NumberOfBins < 1 || s.NumberOfBins > vtkLoadDistribution::MaximumNumberOfBins)
+  {
+    os << "Number Of Bins is " << s.NumberOfBins << "; it must be from 1 to "
+       << vtkLoadDistribution::MaximumNumberOfBins << ".";
+  }
+  else if (s.CustomRange &&
+    (!std::isfinite(s.Range[0]) || !std::isfinite(s.Range[1]) || !(s.Range[1] > s.Range[0])))
+  {
+    os << "Range (" << s.Range[0] << ", " << s.Range[1]
+       << ") must be two finite positions along the axis (m), the second above the first.";
+  }
+  error = os.str();
+  if (!error.empty())
+  {
+    return false;
+  }
+  return ResolveLoadAxes(self->GetDragDirection(), self->GetLiftDirection(), upstream, s.Axes,
+    error);
+}
+
+/// Check every surface leaf's arrays (no collective). Returns the checked
+/// inputs; `error` is set on the first failure.
+void CheckLeaves(const std::vector<Leaf>& leaves, std::vector<LeafKind>& kinds,
+  std::vector<LeafInputs>& inputs, std::string& error)
+{
+  kinds.assign(leaves.size(), LeafKind::Empty);
+  inputs.assign(leaves.size(), LeafInputs());
+  for (std::size_t i = 0; i < leaves.size() && error.empty(); ++i)
+  {
+    kinds[i] = ClassifyLeaf(leaves[i].Data);
+    if (kinds[i] != LeafKind::Surface)
+    {
+      continue;
+    }
+    vtkDataSet* ds = leaves[i].Data;
+    const std::string& name = leaves[i].Name;
+    if (!CheckGhostArrays(ds, name, error) || !CheckPointIds(ds, name, error))
+    {
+      return;
+    }
+    LeafInputs& in = inputs[i];
+    const char* role = "Load Distribution needs the Wall Traction output:";
+    const std::pair<const char*, int> wanted[3] = { { names::PressureForce, 3 },
+      { names::ViscousForce, 3 }, { names::FaceArea, 1 } };
+    ArrayView* views[3] = { &in.ForceP, &in.ForceV, &in.Area };
+    for (int k = 0; k < 3 && error.empty(); ++k)
+    {
+      vtkDataArray* a = FindSelectedArray(
+        ds, ArraySelection{ wanted[k].first, false }, wanted[k].second, role, name, error);
+      *views[k] = MakeArrayView(a, false);
+    }
+    in.Points = MakePointView(ds);
+    in.Ghosts = CellGhostMask(ds);
+    if (error.empty() && !in.Points.Data)
+    {
+      error = "Block '" + name + "' has cells but no points.";
+    }
+  }
+}
+
+vtkSmartPointer<vtkDoubleArray> NewColumn(const char* name, int components, vtkIdType rows)
+{
+  auto column = vtkSmartPointer<vtkDoubleArray>::New();
+  column->SetName(name);
+  column->SetNumberOfComponents(components);
+  column->SetNumberOfTuples(rows);
+  SetUnits(column, columns::UnitOf(name));
+  return column;
+}
+
+/// The table: one row per bin from the reduced sums (value and carry per
+/// slot), and the field data that records how it was made.
+void FillTable(vtkTable* table, const AxisBins<double>& bins, const Settings& s,
+  const std::vector<double>& flat)
+{
+  const vtkIdType n = bins.Count;
+  auto binIds = vtkSmartPointer<vtkIntArray>::New();
+  binIds->SetName("Bin");
+  binIds->SetNumberOfTuples(n);
+  SetUnits(binIds, columns::UnitOf("Bin"));
+  table->AddColumn(binIds);
+  std::vector<vtkSmartPointer<vtkDoubleArray>> cols;
+  for (const columns::NamedUnit& col : columns::DistributionColumns)
+  {
+    if (std::string(col.Name) != "Bin")
+    {
+      cols.push_back(NewColumn(col.Name, col.Components, n));
+      table->AddColumn(cols.back());
+    }
+  }
+  auto slot = [&](vtkIdType b, std::size_t k) {
+    const std::size_t at = 2 * (static_cast<std::size_t>(b) * NumBinSlots + k);
+    Sum v;
+    v.Sum = flat[at];
+    v.Carry = flat[at + 1];
+    return v.Value();
+  };
+  CompensatedSum<double> cumulative[3];
+  const LoadAxes<double>& axes = s.Axes.Axes;
+  for (vtkIdType b = 0; b < n; ++b)
+  {
+    const double start = bins.Edge(static_cast<int>(b));
+    const double end = bins.Edge(static_cast<int>(b) + 1);
+    const double width = end - start;
+    double fp[3], fv[3], f[3], m[3], cum[3];
+    for (std::size_t k = 0; k < 3; ++k)
+    {
+      fp[k] = slot(b, PressureForceSlot + k);
+      fv[k] = slot(b, ViscousForceSlot + k);
+      f[k] = fp[k] + fv[k];
+      m[k] = slot(b, MomentSlot + k);
+      cumulative[k].Add(f[k]);
+      cum[k] = cumulative[k].Value();
+    }
+    const double fpl[3] = { fp[0] / width, fp[1] / width, fp[2] / width };
+    const double fvl[3] = { fv[0] / width, fv[1] / width, fv[2] / width };
+    const double fl[3] = { f[0] / width, f[1] / width, f[2] / width };
+    binIds->SetValue(b, static_cast<int>(b));
+    const double centre = 0.5 * (start + end);
+    const double area = slot(b, AreaSlot);
+    const double drag = Dot(fl, axes.Drag), side = Dot(fl, axes.Side), lift = Dot(fl, axes.Lift);
+    // In the order of WALLLOADS_DISTRIBUTION_COLUMNS after Bin.
+    const double* values[] = { &start, &end, &centre, &area, fpl, fvl, fl, &drag, &side, &lift,
+      cum, m };
+    static_assert(sizeof(values) / sizeof(values[0]) + 1 ==
+        sizeof(columns::DistributionColumns) / sizeof(columns::NamedUnit),
+      "one value per Load Distribution column");
+    for (std::size_t c = 0; c < cols.size(); ++c)
+    {
+      cols[c]->SetTypedTuple(b, values[c]);
+    }
+  }
+  const std::size_t g = 2 * static_cast<std::size_t>(n) * NumBinSlots;
+  auto global = [&](std::size_t k) {
+    Sum v;
+    v.Sum = flat[g + 2 * k];
+    v.Carry = flat[g + 2 * k + 1];
+    return v.Value();
+  };
+  const double width = bins.Edge(1) - bins.Edge(0);
+  const double skipped = global(SkippedSlot), outside = global(OutsideAreaSlot);
+  const double* fields[] = { bins.Origin, bins.Axis, &width, s.Centre, axes.Drag, axes.Side,
+    axes.Lift, &skipped, &outside };
+  vtkFieldData* fd = table->GetFieldData();
+  std::size_t k = 0;
+  for (const columns::NamedUnit& col : columns::DistributionFields)
+  {
+    SetFieldValue(fd, col.Name, fields[k++], col.Components);
+    SetUnits(fd->GetAbstractArray(col.Name), col.Unit);
+  }
+}
+} // namespace
+
+//------------------------------------------------------------------------------
+vtkLoadDistribution::vtkLoadDistribution() = default;
+
+//------------------------------------------------------------------------------
+int vtkLoadDistribution::FillInputPortInformation(int, vtkInformation* info)
+{
+  info->Remove(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE());
+  info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkPolyData");
+  info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkUnstructuredGrid");
+  info->Append(vtkAlgorithm::INPUT_REQUIRED_DATA_TYPE(), "vtkDataObjectTree");
+  return 1;
+}
+
+//------------------------------------------------------------------------------
+int vtkLoadDistribution::RequestData(
+  vtkInformation*, vtkInformationVector** inputVector, vtkInformationVector* outputVector)
+{
+  vtkDataObject* input = vtkDataObject::GetData(inputVector[0], 0);
+  vtkTable* table = vtkTable::GetData(outputVector, 0);
+  if (!input || !table)
+  {
+    vtkErrorMacro("Missing input or output.");
+    return 0;
+  }
+  table->Initialize();
+  // Fetch: the settings are the same on every rank (properties, and the
+  // global field data of Wall Traction), so all ranks agree on failing here.
+  Settings s;
+  std::string error;
+  if (!ResolveSettings(this, input->GetFieldData(), s, error))
+  {
+    vtkErrorMacro(<< error);
+    return 0;
+  }
+  AxisBins<double> axis;
+  MakeAxisBins(s.Origin, s.Direction, 0.0, 1.0, 1, axis);
+
+  // Validate every leaf locally, then agree on the outcome and the extent of
+  // the faces along the axis in one collective.
+  std::vector<Leaf> leaves;
+  std::vector<std::string> regionNames;
+  ListLeaves(input, leaves, regionNames);
+  std::vector<LeafKind> kinds;
+  std::vector<LeafInputs> inputs;
+  CheckLeaves(leaves, kinds, inputs, error);
+  double lo = VTK_DOUBLE_MAX, hi = -VTK_DOUBLE_MAX, cells = 0;
+  for (std::size_t i = 0; i < leaves.size(); ++i)
+  {
+    cells += kinds[i] == LeafKind::Surface ? 1.0 : 0.0;
+  }
+  for (std::size_t i = 0; i < leaves.size() && error.empty() && !s.CustomRange; ++i)
+  {
+    if (kinds[i] == LeafKind::Surface)
+    {
+      DispatchFaces(leaves[i].Data, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
+        ExtentOfLeaf<decltype(id), decltype(pt)>(inputs[i], leaves[i].Data, axis, lo, hi);
+      });
+    }
+  }
+  double agreed[4] = { error.empty() ? 0.0 : 1.0, hi, -lo, cells };
+  GlobalMax(agreed, 4);
+  if (agreed[0] == 0 && agreed[3] == 0 && !input->GetFieldData()->GetArray(names::WettedArea))
+  {
+    // An empty input that never went through Wall Traction (or that Wall
+    // Traction refused): zero loads would be passed off as a result.
+    error = "Load Distribution's input holds no faces and no 'Wetted Area': it is not the output "
+            "of Wall Traction, or Wall Traction failed upstream (see its error).";
+    agreed[0] = 1;
+  }
+  if (agreed[0] > 0)
+  {
+    ReportAgreedFailure(this, error);
+    return 0;
+  }
+  this->UpdateProgress(0.1);
+  double range[2] = { s.Range[0], s.Range[1] };
+  if (!s.CustomRange)
+  {
+    range[0] = -agreed[2];
+    range[1] = agreed[1];
+    if (range[1] < range[0])
+    {
+      vtkWarningMacro("Load Distribution: the input holds no wall faces with a load; the table "
+                      "is empty (set Use Custom Range for empty bins).");
+      return 1;
+    }
+    if (!(range[1] > range[0]))
+    {
+      vtkErrorMacro("The faces span no length along the axis (all at "
+        << range[0] << " m): choose another Axis Direction, or set Use Custom Range and Range.");
+      return 0;
+    }
+  }
+  AxisBins<double> bins;
+  MakeAxisBins(s.Origin, s.Direction, range[0], range[1], s.NumberOfBins, bins);
+
+  // Dispatch: one local pass over every leaf.
+  std::vector<Sum> sums(static_cast<std::size_t>(bins.Count) * NumBinSlots + NumGlobalSlots);
+  bool aborted = false;
+  for (std::size_t i = 0; i < leaves.size(); ++i)
+  {
+    if (kinds[i] != LeafKind::Surface)
+    {
+      continue;
+    }
+    if (this->GetAbortExecute())
+    {
+      aborted = true;
+      break;
+    }
+    DispatchFaces(leaves[i].Data, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
+      BinLeaf<decltype(id), decltype(pt)>(inputs[i], leaves[i].Data, bins, s.Centre, sums);
+    });
+    this->UpdateProgress(0.1 + 0.8 * static_cast<double>(i + 1) / leaves.size());
+  }
+  // One reduction of every running sum and its carry, and the abort request.
+  std::vector<double> flat(2 * sums.size() + 1);
+  for (std::size_t k = 0; k < sums.size(); ++k)
+  {
+    flat[2 * k] = sums[k].Sum;
+    flat[2 * k + 1] = sums[k].Carry;
+  }
+  flat.back() = aborted ? 1.0 : 0.0;
+  GlobalSum(flat.data(), static_cast<int>(flat.size()));
+  if (flat.back() > 0 || ProcessRank() != 0)
+  {
+    return 1; // stopped on request (no partial result), or not rank 0
+  }
+
+  // Attach: the table on rank 0.
+  FillTable(table, bins, s, flat);
+  const std::size_t g = 2 * static_cast<std::size_t>(bins.Count) * NumBinSlots;
+  const double faces = flat[g + 2 * FacesSlot] + flat[g + 2 * FacesSlot + 1];
+  const double skipped = flat[g + 2 * SkippedSlot] + flat[g + 2 * SkippedSlot + 1];
+  const double outside = flat[g + 2 * OutsideAreaSlot] + flat[g + 2 * OutsideAreaSlot + 1];
+  std::ostringstream info;
+  const auto vec = [&info](const double* v) {
+    info << "(" << v[0] << ", " << v[1] << ", " << v[2] << ")";
+  };
+  info << bins.Count << " bins from " << range[0] << " to " << range[1] << " m along ";
+  vec(bins.Axis);
+  info << " through ";
+  vec(bins.Origin);
+  info << (s.CustomRange ? " (custom range)" : " (the extent of the faces)") << "; "
+       << static_cast<vtkIdType>(faces) << " faces; drag direction ";
+  vec(s.Axes.Axes.Drag);
+  info << " (" << s.Axes.DragFrom << "), lift direction ";
+  vec(s.Axes.Axes.Lift);
+  info << " (" << s.Axes.LiftFrom << "); moments about ";
+  vec(s.Centre);
+  info << " m.";
+  Notice(this, info.str());
+  if (skipped > 0)
+  {
+    vtkWarningMacro("Load Distribution: " << static_cast<vtkIdType>(skipped)
+                                          << " faces carry no finite load, area or geometry and "
+                                             "are left out (see 'Skipped Faces').");
+  }
+  if (outside > 0)
+  {
+    vtkWarningMacro("Load Distribution: a wall area of "
+      << outside << " m^2 lies outside the Range and is in no bin ('Area Outside Range').");
+  }
+  this->UpdateProgress(1.0);
+  return 1;
+}
+
+//------------------------------------------------------------------------------
+void vtkLoadDistribution::PrintSelf(ostream& os, vtkIndent indent)
+{
+  this->Superclass::PrintSelf(os, indent);
+  auto vec = [&os](const char* name, const double* v) {
+    os << name << ": " << v[0] << " " << v[1] << " " << v[2] << "\n";
+  };
+  os << indent;
+  vec("AxisOrigin", this->AxisOrigin);
+  os << indent;
+  vec("AxisDirection", this->AxisDirection);
+  os << indent << "NumberOfBins: " << this->NumberOfBins << "\n";
+  os << indent << "UseCustomRange: " << this->UseCustomRange << "\n";
+  os << indent << "Range: " << this->Range[0] << " " << this->Range[1] << "\n";
+  os << indent;
+  vec("MomentCentre", this->MomentCentre);
+  os << indent;
+  vec("DragDirection", this->DragDirection);
+  os << indent;
+  vec("LiftDirection", this->LiftDirection);
+}

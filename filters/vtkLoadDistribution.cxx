@@ -190,7 +190,10 @@ struct BinLoop
           }
         });
       global[FacesSlot].Add(1.0);
-      global[OutsideAreaSlot].Add(area * (frame.Area - inside) / frame.Area);
+      if (CrossesRangeEnds<double>(points, ids, n, this->Bins))
+      {
+        global[OutsideAreaSlot].Add(area * (frame.Area - inside) / frame.Area);
+      }
     }
   }
 
@@ -469,8 +472,11 @@ int vtkLoadDistribution::RequestData(
     range[1] = agreed[1];
     if (range[1] < range[0])
     {
-      vtkWarningMacro("Load Distribution: the input holds no wall faces with a load; the table "
-                      "is empty (set Use Custom Range for empty bins).");
+      if (ProcessRank() == 0)
+      {
+        vtkWarningMacro("Load Distribution: the input holds no wall faces with a load; the table "
+                        "is empty (set Use Custom Range for empty bins).");
+      }
       return 1;
     }
     if (!(range[1] > range[0]))

@@ -190,6 +190,9 @@ TEST(PolygonBinning, BinsInsideAFace)
     EXPECT_NEAR(mid.Parts[b].Centroid[0], 3.0 + b, 1e-14);
   }
   EXPECT_NEAR(mid.Inside, 10.0, 1e-13);
+  const std::int64_t ids[4] = { 0, 1, 2, 3 };
+  EXPECT_TRUE(CrossesRangeEnds(p.data(), ids, 4, Bins(Zero, X, 2.5, 7.5, 5)));
+  EXPECT_FALSE(CrossesRangeEnds(p.data(), ids, 4, Bins(Zero, X, 0.0, 10.0, 5)));
   // Entirely outside the range: nothing.
   const Binned out = Bin(p, { 0, 1, 2, 3 }, Bins(Zero, X, 11.0, 12.0, 3));
   EXPECT_TRUE(out.Parts.empty());

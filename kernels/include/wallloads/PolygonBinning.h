@@ -119,6 +119,22 @@ inline bool MakeAxisBins(
   return true;
 }
 
+/// Whether any corner of the face lies outside [Start, End] (the face then
+/// has a part in no bin, unless that part has no area).
+template <typename T, typename P, typename I>
+inline bool CrossesRangeEnds(const P* points, const I* ids, int numIds, const AxisBins<T>& bins)
+{
+  for (int k = 0; k < numIds; ++k)
+  {
+    const T s = bins.Coordinate(points + 3 * ids[k]);
+    if (s < bins.Start || s > bins.End)
+    {
+      return true;
+    }
+  }
+  return false;
+}
+
 namespace detail
 {
 /// One pass of Sutherland-Hodgman: keep the part of the convex polygon

@@ -227,6 +227,17 @@ bool ResolveSettings(vtkLoadDistribution* self, vtkFieldData* upstream, Settings
   s.NumberOfBins = self->GetNumberOfBins();
   s.CustomRange = self->GetUseCustomRange() != 0;
   self->GetRange(s.Range);
+  // Scale the direction by its largest component first, so that its norm
+  // neither overflows nor underflows (1e200 and 1e-200 are directions too).
+  const double largest =
+    std::max(std::fabs(s.Direction[0]), std::max(std::fabs(s.Direction[1]), std::fabs(s.Direction[2])));
+  if (largest > 0 && std::isfinite(largest))
+  {
+    for (double& d : s.Direction)
+    {
+      d /= largest;
+    }
+  }
   std::ostringstream os;
   if (!(Norm(s.Direction) > 0) || !AllFinite(s.Direction, 3))
   {
@@ -425,7 +436,11 @@ int vtkLoadDistribution::RequestData(
     return 0;
   }
   AxisBins<double> axis;
-  MakeAxisBins(s.Origin, s.Direction, 0.0, 1.0, 1, axis);
+  if (!MakeAxisBins(s.Origin, s.Direction, 0.0, 1.0, 1, axis))
+  {
+    vtkErrorMacro("Axis Origin and Axis Direction do not make an axis.");
+    return 0;
+  }
 
   // Validate every leaf locally, then agree on the outcome and the extent of
   // the faces along the axis in one collective.
@@ -487,7 +502,14 @@ int vtkLoadDistribution::RequestData(
     }
   }
   AxisBins<double> bins;
-  MakeAxisBins(s.Origin, s.Direction, range[0], range[1], s.NumberOfBins, bins);
+  if (!MakeAxisBins(s.Origin, s.Direction, range[0], range[1], s.NumberOfBins, bins))
+  {
+    // Reached only with a range that is not finite (faces at +-1e308): the
+    // same on every rank, which all stop here.
+    vtkErrorMacro("The bins cannot be made over (" << range[0] << ", " << range[1]
+                                                   << ") m along the axis: set a finite Range.");
+    return 0;
+  }
 
   // Dispatch: one local pass over every leaf.
   std::vector<Sum> sums(static_cast<std::size_t>(bins.Count) * NumBinSlots + NumGlobalSlots);

@@ -21,6 +21,7 @@
 #include "vtkTable.h"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <sstream>
 #include <string>
@@ -71,11 +72,11 @@ struct LeafInputs
 };
 
 /// A face that carries a load: counted (not a ghost), a 2D cell, with finite
-/// forces, area and geometry. Returns 0 for cells that are not faces, -1 for
-/// faces left out (skipped), 1 otherwise (with `frame`, `ids`, `n`).
-template <typename I, typename P>
+/// forces and area. Returns 0 for cells that are not faces, -1 for faces left
+/// out (skipped), 1 otherwise (with `ids`, `n`, the forces and the area).
+template <typename I>
 int AcceptFace(const LeafInputs& in, const FaceTopology<I>& topo, vtkIdType c, I buffer[4],
-  const I*& ids, int& n, double fp[3], double fv[3], double& area, FaceFrame<double>& frame)
+  const I*& ids, int& n, double fp[3], double fv[3], double& area)
 {
   if (!IsCountedCell(in.Ghosts, c))
   {
@@ -92,40 +93,69 @@ int AcceptFace(const LeafInputs& in, const FaceTopology<I>& topo, vtkIdType c, I
     fv[k] = in.ForceV.Get(c, k);
   }
   area = in.Area.Get(c, 0);
-  if (!AllFinite(fp, 3) || !AllFinite(fv, 3) || !std::isfinite(area) ||
-    ComputeFaceFrame<double>(static_cast<const P*>(in.Points.Data), ids, n, frame) !=
-      FaceStatus::Ok)
-  {
-    return -1;
-  }
-  return 1;
+  return AllFinite(fp, 3) && AllFinite(fv, 3) && std::isfinite(area) ? 1 : -1;
 }
 
-/// Extent along the axis of the faces that carry a load.
+/// Extent along the axis of the corners of the faces that carry a load
+/// (faces Wall Traction skipped carry NaN and are left out), per thread.
+template <typename I, typename P>
+struct ExtentLoop
+{
+  const LeafInputs& In;
+  const FaceTopology<I>& Topo;
+  const AxisBins<double>& Axis;
+  vtkSMPThreadLocal<std::array<double, 2>> Local;
+
+  ExtentLoop(const LeafInputs& in, const FaceTopology<I>& topo, const AxisBins<double>& axis)
+    : In(in)
+    , Topo(topo)
+    , Axis(axis)
+  {
+  }
+
+  void Initialize() { this->Local.Local() = { VTK_DOUBLE_MAX, -VTK_DOUBLE_MAX }; }
+
+  void operator()(vtkIdType begin, vtkIdType end)
+  {
+    std::array<double, 2>& range = this->Local.Local();
+    const P* points = static_cast<const P*>(In.Points.Data);
+    for (vtkIdType c = begin; c < end; ++c)
+    {
+      I buffer[4];
+      const I* ids = nullptr;
+      int n = 0;
+      double fp[3], fv[3], area;
+      if (AcceptFace<I>(In, Topo, c, buffer, ids, n, fp, fv, area) != 1)
+      {
+        continue;
+      }
+      for (int k = 0; k < n; ++k)
+      {
+        const double s = this->Axis.Coordinate(points + 3 * ids[k]);
+        if (std::isfinite(s))
+        {
+          range[0] = std::min(range[0], s);
+          range[1] = std::max(range[1], s);
+        }
+      }
+    }
+  }
+
+  void Reduce() {}
+};
+
 template <typename I, typename P>
 void ExtentOfLeaf(const LeafInputs& in, vtkDataSet* ds, const AxisBins<double>& axis, double& lo,
   double& hi)
 {
   FaceTopology<I> topo;
   MakeFaceTopology<I>(ds, topo);
-  const P* points = static_cast<const P*>(in.Points.Data);
-  for (vtkIdType c = 0; c < ds->GetNumberOfCells(); ++c)
+  ExtentLoop<I, P> loop(in, topo, axis);
+  vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
+  for (const std::array<double, 2>& range : loop.Local)
   {
-    I buffer[4];
-    const I* ids = nullptr;
-    int n = 0;
-    double fp[3], fv[3], area;
-    FaceFrame<double> frame;
-    if (AcceptFace<I, P>(in, topo, c, buffer, ids, n, fp, fv, area, frame) != 1)
-    {
-      continue;
-    }
-    for (int k = 0; k < n; ++k)
-    {
-      const double s = axis.Coordinate(points + 3 * ids[k]);
-      lo = std::min(lo, s);
-      hi = std::max(hi, s);
-    }
+    lo = std::min(lo, range[0]);
+    hi = std::max(hi, range[1]);
   }
 }
 
@@ -164,7 +194,11 @@ struct BinLoop
       int n = 0;
       double fp[3], fv[3], area;
       FaceFrame<double> frame;
-      const int accepted = AcceptFace<I, P>(In, Topo, c, buffer, ids, n, fp, fv, area, frame);
+      int accepted = AcceptFace<I>(In, Topo, c, buffer, ids, n, fp, fv, area);
+      if (accepted > 0 && ComputeFaceFrame<double>(points, ids, n, frame) != FaceStatus::Ok)
+      {
+        accepted = -1; // degenerate or not finite: Wall Traction skipped it too
+      }
       if (accepted <= 0)
       {
         if (accepted < 0)

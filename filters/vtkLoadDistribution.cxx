@@ -342,6 +342,142 @@ void CheckLeaves(const std::vector<Leaf>& leaves, std::vector<LeafKind>& kinds,
   }
 }
 
+constexpr const char* NotFromTraction =
+  "Load Distribution's input holds no faces and no 'Wetted Area': it is not the output of Wall "
+  "Traction, or Wall Traction failed upstream (see its error).";
+
+/// After the per-bin and global sums: slots summed over the ranks in the
+/// same reduction.
+enum TailSlot : std::size_t
+{
+  FailuresSlot = 0, ///< ranks whose input is bad
+  SurfacesSlot = 1, ///< surface leaves
+  AbortSlot = 2,    ///< ranks asked to stop
+  NumTailSlots = 3
+};
+
+enum class Agreement
+{
+  Ok,
+  Failed,  ///< bad input on some rank
+  NoFaces, ///< no face carries a load anywhere
+  NoLength ///< the faces span no length along the axis
+};
+
+/// The default range: the extent of the faces along the axis, agreed over
+/// all ranks in one collective with the validation outcome.
+Agreement AgreeOnExtent(const std::vector<Leaf>& leaves, const std::vector<LeafKind>& kinds,
+  const std::vector<LeafInputs>& inputs, const Settings& s, bool fromTraction, std::string& error,
+  double range[2])
+{
+  AxisBins<double> axis;
+  MakeAxisBins(s.Origin, s.Direction, 0.0, 1.0, 1, axis); // checked by ResolveSettings
+  double lo = VTK_DOUBLE_MAX, hi = -VTK_DOUBLE_MAX, surfaces = 0;
+  for (std::size_t i = 0; i < leaves.size(); ++i)
+  {
+    if (kinds[i] != LeafKind::Surface)
+    {
+      continue;
+    }
+    surfaces += 1;
+    if (error.empty())
+    {
+      DispatchFaces(leaves[i].Data, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
+        ExtentOfLeaf<decltype(id), decltype(pt)>(inputs[i], leaves[i].Data, axis, lo, hi);
+      });
+    }
+  }
+  double agreed[4] = { error.empty() ? 0.0 : 1.0, hi, -lo, surfaces };
+  GlobalMax(agreed, 4);
+  if (agreed[0] == 0 && agreed[3] == 0 && !fromTraction)
+  {
+    // An empty input that never went through Wall Traction (or that Wall
+    // Traction refused): zero loads would be passed off as a result.
+    error = NotFromTraction;
+    agreed[0] = 1;
+  }
+  range[0] = -agreed[2];
+  range[1] = agreed[1];
+  if (agreed[0] > 0)
+  {
+    return Agreement::Failed;
+  }
+  if (range[1] < range[0])
+  {
+    return Agreement::NoFaces;
+  }
+  return range[1] > range[0] ? Agreement::Ok : Agreement::NoLength;
+}
+
+/// The local pass over every surface leaf (none when `valid` is false), as
+/// the flat vector that is reduced: per-bin and global sums with their
+/// carries, then the tail slots.
+std::vector<double> BinLeaves(vtkAlgorithm* self, const std::vector<Leaf>& leaves,
+  const std::vector<LeafKind>& kinds, const std::vector<LeafInputs>& inputs,
+  const AxisBins<double>& bins, const double* centre, bool valid)
+{
+  std::vector<Sum> sums(static_cast<std::size_t>(bins.Count) * NumBinSlots + NumGlobalSlots);
+  double tail[NumTailSlots] = { valid ? 0.0 : 1.0, 0.0, 0.0 };
+  for (std::size_t i = 0; i < leaves.size(); ++i)
+  {
+    if (kinds[i] != LeafKind::Surface)
+    {
+      continue;
+    }
+    tail[SurfacesSlot] += 1;
+    if (!valid)
+    {
+      continue;
+    }
+    if (self->GetAbortExecute())
+    {
+      tail[AbortSlot] = 1;
+      break;
+    }
+    DispatchFaces(leaves[i].Data, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
+      BinLeaf<decltype(id), decltype(pt)>(inputs[i], leaves[i].Data, bins, centre, sums);
+    });
+    self->UpdateProgress(0.1 + 0.8 * static_cast<double>(i + 1) / leaves.size());
+  }
+  std::vector<double> flat(2 * sums.size() + NumTailSlots);
+  for (std::size_t k = 0; k < sums.size(); ++k)
+  {
+    flat[2 * k] = sums[k].Sum;
+    flat[2 * k + 1] = sums[k].Carry;
+  }
+  std::copy(tail, tail + NumTailSlots, flat.end() - NumTailSlots);
+  return flat;
+}
+
+/// A global slot of the reduced sums (value plus carry).
+double GlobalValue(const std::vector<double>& flat, const AxisBins<double>& bins, std::size_t slot)
+{
+  const std::size_t at = 2 * (static_cast<std::size_t>(bins.Count) * NumBinSlots + slot);
+  return flat[at] + flat[at + 1];
+}
+
+/// The information message: bins, axis, range, faces and load axes used.
+std::string Summary(const AxisBins<double>& bins, const Settings& s, double faces)
+{
+  std::ostringstream info;
+  const auto vec = [&info](const double* v) {
+    info << "(" << v[0] << ", " << v[1] << ", " << v[2] << ")";
+  };
+  info << bins.Count << " bins from " << bins.Start << " to " << bins.End << " m along ";
+  vec(bins.Axis);
+  info << " through ";
+  vec(bins.Origin);
+  info << (s.CustomRange ? " (custom range)" : " (the extent of the faces)") << "; "
+       << static_cast<vtkIdType>(faces) << " faces; drag direction ";
+  vec(s.Axes.Axes.Drag);
+  info << " (" << s.Axes.DragFrom << "), lift direction ";
+  vec(s.Axes.Axes.Lift);
+  info << " (" << s.Axes.LiftFrom << "); moments about ";
+  vec(s.Centre);
+  info << " m.";
+  return info.str();
+}
+
 vtkSmartPointer<vtkDoubleArray> NewColumn(const char* name, int components, vtkIdType rows)
 {
   auto column = vtkSmartPointer<vtkDoubleArray>::New();
@@ -414,15 +550,9 @@ void FillTable(vtkTable* table, const AxisBins<double>& bins, const Settings& s,
       cols[c]->SetTypedTuple(b, values[c]);
     }
   }
-  const std::size_t g = 2 * static_cast<std::size_t>(n) * NumBinSlots;
-  auto global = [&](std::size_t k) {
-    Sum v;
-    v.Sum = flat[g + 2 * k];
-    v.Carry = flat[g + 2 * k + 1];
-    return v.Value();
-  };
   const double width = bins.Edge(1) - bins.Edge(0);
-  const double skipped = global(SkippedSlot), outside = global(OutsideAreaSlot);
+  const double skipped = GlobalValue(flat, bins, SkippedSlot);
+  const double outside = GlobalValue(flat, bins, OutsideAreaSlot);
   const double* fields[] = { bins.Origin, bins.Axis, &width, s.Centre, axes.Drag, axes.Side,
     axes.Lift, &skipped, &outside };
   vtkFieldData* fd = table->GetFieldData();
@@ -469,138 +599,77 @@ int vtkLoadDistribution::RequestData(
     vtkErrorMacro(<< error);
     return 0;
   }
-  AxisBins<double> axis;
-  if (!MakeAxisBins(s.Origin, s.Direction, 0.0, 1.0, 1, axis))
-  {
-    vtkErrorMacro("Axis Origin and Axis Direction do not make an axis.");
-    return 0;
-  }
-
-  // Validate every leaf locally, then agree on the outcome and the extent of
-  // the faces along the axis in one collective.
+  // Validate every leaf locally (no collective).
   std::vector<Leaf> leaves;
   std::vector<std::string> regionNames;
   ListLeaves(input, leaves, regionNames);
   std::vector<LeafKind> kinds;
   std::vector<LeafInputs> inputs;
   CheckLeaves(leaves, kinds, inputs, error);
-  double lo = VTK_DOUBLE_MAX, hi = -VTK_DOUBLE_MAX, cells = 0;
-  for (std::size_t i = 0; i < leaves.size(); ++i)
-  {
-    cells += kinds[i] == LeafKind::Surface ? 1.0 : 0.0;
-  }
-  for (std::size_t i = 0; i < leaves.size() && error.empty() && !s.CustomRange; ++i)
-  {
-    if (kinds[i] == LeafKind::Surface)
-    {
-      DispatchFaces(leaves[i].Data, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
-        ExtentOfLeaf<decltype(id), decltype(pt)>(inputs[i], leaves[i].Data, axis, lo, hi);
-      });
-    }
-  }
-  double agreed[4] = { error.empty() ? 0.0 : 1.0, hi, -lo, cells };
-  GlobalMax(agreed, 4);
-  if (agreed[0] == 0 && agreed[3] == 0 && !input->GetFieldData()->GetArray(names::WettedArea))
-  {
-    // An empty input that never went through Wall Traction (or that Wall
-    // Traction refused): zero loads would be passed off as a result.
-    error = "Load Distribution's input holds no faces and no 'Wetted Area': it is not the output "
-            "of Wall Traction, or Wall Traction failed upstream (see its error).";
-    agreed[0] = 1;
-  }
-  if (agreed[0] > 0)
-  {
-    ReportAgreedFailure(this, error);
-    return 0;
-  }
-  this->UpdateProgress(0.1);
+  const bool fromTraction = input->GetFieldData()->GetArray(names::WettedArea) != nullptr;
+
+  // The bins: a custom range is known now; the faces' extent is agreed with
+  // the validation outcome in one collective.
   double range[2] = { s.Range[0], s.Range[1] };
   if (!s.CustomRange)
   {
-    range[0] = -agreed[2];
-    range[1] = agreed[1];
-    if (range[1] < range[0])
+    switch (AgreeOnExtent(leaves, kinds, inputs, s, fromTraction, error, range))
     {
-      if (ProcessRank() == 0)
-      {
-        vtkWarningMacro("Load Distribution: the input holds no wall faces with a load; the table "
-                        "is empty (set Use Custom Range for empty bins).");
-      }
-      return 1;
-    }
-    if (!(range[1] > range[0]))
-    {
-      vtkErrorMacro("The faces span no length along the axis (all at "
-        << range[0] << " m): choose another Axis Direction, or set Use Custom Range and Range.");
-      return 0;
+      case Agreement::Failed:
+        ReportAgreedFailure(this, error);
+        return 0;
+      case Agreement::NoFaces:
+        if (ProcessRank() == 0)
+        {
+          vtkWarningMacro("Load Distribution: the input holds no wall faces with a load; the table "
+                          "is empty (set Use Custom Range for empty bins).");
+        }
+        return 1;
+      case Agreement::NoLength:
+        vtkErrorMacro("The faces span no length along the axis (all at "
+          << range[0] << " m): choose another Axis Direction, or set Use Custom Range and Range.");
+        return 0;
+      case Agreement::Ok:
+        break;
     }
   }
   AxisBins<double> bins;
   if (!MakeAxisBins(s.Origin, s.Direction, range[0], range[1], s.NumberOfBins, bins))
   {
-    // Reached only with a range that is not finite (faces at +-1e308): the
+    // Reached only with a range that is not finite (faces near +-1e308): the
     // same on every rank, which all stop here.
     vtkErrorMacro("The bins cannot be made over (" << range[0] << ", " << range[1]
                                                    << ") m along the axis: set a finite Range.");
     return 0;
   }
+  this->UpdateProgress(0.1);
 
-  // Dispatch: one local pass over every leaf.
-  std::vector<Sum> sums(static_cast<std::size_t>(bins.Count) * NumBinSlots + NumGlobalSlots);
-  bool aborted = false;
-  for (std::size_t i = 0; i < leaves.size(); ++i)
-  {
-    if (kinds[i] != LeafKind::Surface)
-    {
-      continue;
-    }
-    if (this->GetAbortExecute())
-    {
-      aborted = true;
-      break;
-    }
-    DispatchFaces(leaves[i].Data, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
-      BinLeaf<decltype(id), decltype(pt)>(inputs[i], leaves[i].Data, bins, s.Centre, sums);
-    });
-    this->UpdateProgress(0.1 + 0.8 * static_cast<double>(i + 1) / leaves.size());
-  }
-  // One reduction of every running sum and its carry, and the abort request.
-  std::vector<double> flat(2 * sums.size() + 1);
-  for (std::size_t k = 0; k < sums.size(); ++k)
-  {
-    flat[2 * k] = sums[k].Sum;
-    flat[2 * k + 1] = sums[k].Carry;
-  }
-  flat.back() = aborted ? 1.0 : 0.0;
+  // Dispatch: one local pass over every leaf (none where the input is bad),
+  // then one reduction of the sums with their carries, the failures, the
+  // surface leaves and an abort request.
+  std::vector<double> flat = BinLeaves(this, leaves, kinds, inputs, bins, s.Centre, error.empty());
   GlobalSum(flat.data(), static_cast<int>(flat.size()));
-  if (flat.back() > 0 || ProcessRank() != 0)
+  double* tail = flat.data() + flat.size() - NumTailSlots;
+  if (tail[FailuresSlot] == 0 && tail[SurfacesSlot] == 0 && !fromTraction)
+  {
+    error = NotFromTraction;
+    tail[FailuresSlot] = 1;
+  }
+  if (tail[FailuresSlot] > 0)
+  {
+    ReportAgreedFailure(this, error);
+    return 0;
+  }
+  if (tail[AbortSlot] > 0 || ProcessRank() != 0)
   {
     return 1; // stopped on request (no partial result), or not rank 0
   }
 
-  // Attach: the table on rank 0.
+  // Attach: the table on rank 0, and what was done.
   FillTable(table, bins, s, flat);
-  const std::size_t g = 2 * static_cast<std::size_t>(bins.Count) * NumBinSlots;
-  const double faces = flat[g + 2 * FacesSlot] + flat[g + 2 * FacesSlot + 1];
-  const double skipped = flat[g + 2 * SkippedSlot] + flat[g + 2 * SkippedSlot + 1];
-  const double outside = flat[g + 2 * OutsideAreaSlot] + flat[g + 2 * OutsideAreaSlot + 1];
-  std::ostringstream info;
-  const auto vec = [&info](const double* v) {
-    info << "(" << v[0] << ", " << v[1] << ", " << v[2] << ")";
-  };
-  info << bins.Count << " bins from " << range[0] << " to " << range[1] << " m along ";
-  vec(bins.Axis);
-  info << " through ";
-  vec(bins.Origin);
-  info << (s.CustomRange ? " (custom range)" : " (the extent of the faces)") << "; "
-       << static_cast<vtkIdType>(faces) << " faces; drag direction ";
-  vec(s.Axes.Axes.Drag);
-  info << " (" << s.Axes.DragFrom << "), lift direction ";
-  vec(s.Axes.Axes.Lift);
-  info << " (" << s.Axes.LiftFrom << "); moments about ";
-  vec(s.Centre);
-  info << " m.";
-  Notice(this, info.str());
+  Notice(this, Summary(bins, s, GlobalValue(flat, bins, FacesSlot)));
+  const double skipped = GlobalValue(flat, bins, SkippedSlot);
+  const double outside = GlobalValue(flat, bins, OutsideAreaSlot);
   if (skipped > 0)
   {
     vtkWarningMacro("Load Distribution: " << static_cast<vtkIdType>(skipped)

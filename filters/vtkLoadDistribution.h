@@ -43,10 +43,12 @@
  *
  * Ghost and MPI policy: ghost faces (vtkGhostType DUPLICATECELL or
  * HIDDENCELL) are never counted. One local pass visits every leaf of a
- * composite input; the ranks agree on the validity of their input and on
- * the extent of the faces in one collective, then reduce the compensated
- * per-bin sums (and an abort request) in one AllReduce. The table is filled
- * on rank 0 only (empty elsewhere). The input is never modified.
+ * composite input (no collective inside), then one AllReduce sums the
+ * compensated per-bin sums with their carries, the validity of every rank's
+ * input and an abort request, so that all ranks fail or finish together.
+ * The default range needs the extent of the faces before the pass: it is
+ * agreed, with the validity, in one collective before it. The table is
+ * filled on rank 0 only (empty elsewhere). The input is never modified.
  */
 #ifndef vtkLoadDistribution_h
 #define vtkLoadDistribution_h

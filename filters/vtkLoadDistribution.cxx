@@ -38,10 +38,10 @@ using Sum = CompensatedSum<double>;
 /// Running sums of a bin, in the order they are reduced across ranks.
 enum BinSlot : std::size_t
 {
-  AreaSlot = 0,
-  PressureForceSlot = 1, // 3 slots
-  ViscousForceSlot = 4,  // 3 slots
-  MomentSlot = 7,        // 3 slots
+  BinAreaSlot = 0,
+  BinPressureForceSlot = 1, // 3 slots
+  BinViscousForceSlot = 4,  // 3 slots
+  BinMomentSlot = 7,        // 3 slots
   NumBinSlots = 10
 };
 /// Running sums of the whole input, after the bins' slots.
@@ -215,12 +215,12 @@ struct BinLoop
           const double f[3] = { (fp[0] + fv[0]) * w, (fp[1] + fv[1]) * w, (fp[2] + fv[2]) * w };
           double m[3];
           Cross(arm, f, m);
-          s[AreaSlot].Add(area * w);
+          s[BinAreaSlot].Add(area * w);
           for (std::size_t k = 0; k < 3; ++k)
           {
-            s[PressureForceSlot + k].Add(fp[k] * w);
-            s[ViscousForceSlot + k].Add(fv[k] * w);
-            s[MomentSlot + k].Add(m[k]);
+            s[BinPressureForceSlot + k].Add(fp[k] * w);
+            s[BinViscousForceSlot + k].Add(fv[k] * w);
+            s[BinMomentSlot + k].Add(m[k]);
           }
         });
       global[FacesSlot].Add(1.0);
@@ -525,10 +525,10 @@ void FillTable(vtkTable* table, const AxisBins<double>& bins, const Settings& s,
     double fp[3], fv[3], f[3], m[3], cum[3];
     for (std::size_t k = 0; k < 3; ++k)
     {
-      fp[k] = slot(b, PressureForceSlot + k);
-      fv[k] = slot(b, ViscousForceSlot + k);
+      fp[k] = slot(b, BinPressureForceSlot + k);
+      fv[k] = slot(b, BinViscousForceSlot + k);
       f[k] = fp[k] + fv[k];
-      m[k] = slot(b, MomentSlot + k);
+      m[k] = slot(b, BinMomentSlot + k);
       cumulative[k].Add(f[k]);
       cum[k] = cumulative[k].Value();
     }
@@ -537,7 +537,7 @@ void FillTable(vtkTable* table, const AxisBins<double>& bins, const Settings& s,
     const double fl[3] = { f[0] / width, f[1] / width, f[2] / width };
     binIds->SetValue(b, static_cast<int>(b));
     const double centre = 0.5 * (start + end);
-    const double area = slot(b, AreaSlot);
+    const double area = slot(b, BinAreaSlot);
     const double drag = Dot(fl, axes.Drag), side = Dot(fl, axes.Side), lift = Dot(fl, axes.Lift);
     // In the order of WALLLOADS_DISTRIBUTION_COLUMNS after Bin.
     const double* values[] = { &start, &end, &centre, &area, fpl, fvl, fl, &drag, &side, &lift,

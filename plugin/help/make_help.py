@@ -120,6 +120,8 @@ def visibility(prop, proxy):
         other = proxy.find("*[@name='%s']" % dec.get("property"))
         values = (dec.get("value") or dec.get("values") or "").split()
         texts = dict(enum_entries(other)) if other is not None else {}
+        if other is not None and other.find("BooleanDomain") is not None:
+            texts = {"1": "on", "0": "off"}
         shown = " or ".join("'%s'" % texts.get(v, v) for v in values)
         notes.append("shown when %s is %s" % (pretty_label(dec.get("property")), shown))
     return "; ".join(notes)

@@ -79,6 +79,18 @@ for label, settings, parts in bad_settings:
     cap.errors.clear()
     expect("%s corrected: the table is back" % label, rows(ld) == 8 and not cap.errors, str(cap.errors))
 
+# Extreme but valid axis directions (found by the fuzz driver): a direction
+# whose norm overflows or underflows is the same axis as (0, 0, 1).
+reference = column(ld, "Force Per Length").copy()
+for direction in ([0, 0, 1e200], [0, 0, 1e-200], [1e-300, 0, 3e-170]):
+    ld.AxisDirection = direction
+    cap.errors.clear()
+    got = column(ld, "Force Per Length")
+    same = direction[0] == 0 and not cap.errors and np.array_equal(got, reference)
+    expect("axis direction %s: %s" % (direction, "the table of (0, 0, 1)" if direction[0] == 0 else "no error"),
+           same if direction[0] == 0 else not cap.errors, str(cap.errors))
+ld.AxisDirection = [0, 0, 1]
+
 # (e) faces that span no length along the axis (a flat disc across it).
 print("\n== (e) no length along the axis ==")
 disc_pts = np.array([[math.cos(t), math.sin(t), 2.0] for t in np.linspace(0, 2 * math.pi, 9)[:-1]])

@@ -375,7 +375,7 @@ def surface_path(app, ref):
           wt["properties"]["Pressure"][-1] == "Automatic" and wt["properties"]["ShearSource"] == ["Automatic"]
           and wt["properties"]["Orientation"] == ["Automatic"], str({k: wt["properties"][k] for k in
                                                                     ("Pressure", "ShearSource", "Orientation")}))
-    app.quick_launch("load")
+    app.quick_launch("load int")
     s = app.when("Load Integration applied and its summary in a spreadsheet",
                  lambda s: summary_of(s) and sheet_showing(s, source(s, "LoadIntegration")["name"], 2))
     li = source(s, "LoadIntegration")
@@ -502,7 +502,7 @@ def volume_path(app, ref):
           wt["properties"]["ShearSource"] == ["Automatic"] and wt["properties"]["Orientation"] == ["Automatic"])
     app.set_property("WallTraction", "ReferencePressure", "reference pressure", [PAR["p_inf"]])
     app.set_property("WallTraction", "LoadDirection", "load direction", [0, 0, 1])
-    app.quick_launch("load")
+    app.quick_launch("load int")
     s = app.when("Load Integration and its summary",
                  lambda s: summary_of(s) and sheet_showing(s, source(s, "LoadIntegration")["name"], 2)
                  and source(s, "WallTraction")["properties"]["LoadDirection"][-1] in ("1.0", "1"))

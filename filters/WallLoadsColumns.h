@@ -143,6 +143,38 @@ enum ColumnFlags : unsigned
   X("Amplitude", "as quantity", 1, "semi-amplitude of the least-squares sinusoid at the dominant frequency") \
   X("Strouhal Number", "-", 1, "Dominant Frequency times Reference Length over Reference Speed (NaN when either is 0)")
 
+/**
+ * Load Distribution's table, one row per bin along the axis:
+ * X(name, unit, components, meaning). Forces per length are the bin's force
+ * over its width; the faces are split among the bins exactly by area.
+ */
+#define WALLLOADS_DISTRIBUTION_COLUMNS(X)                                                          \
+  X("Bin", "-", 1, "bin index from 0, along the axis") \
+  X("Start", "m", 1, "where the bin starts: distance from Axis Origin along the unit Axis Direction") \
+  X("End", "m", 1, "where the bin ends (the next bin's Start)") \
+  X("Centre", "m", 1, "middle of the bin: (Start + End) / 2") \
+  X("Area", "m^2", 1, "wall area in the bin (faces cut exactly by the bin planes)") \
+  X("Pressure Force Per Length", "N/m", 3, "pressure force of the bin's face parts over the bin width") \
+  X("Viscous Force Per Length", "N/m", 3, "viscous force of the bin's face parts over the bin width") \
+  X("Force Per Length", "N/m", 3, "Pressure Force Per Length + Viscous Force Per Length") \
+  X("Drag Per Length", "N/m", 1, "Force Per Length . e_D (drag direction)") \
+  X("Side Force Per Length", "N/m", 1, "Force Per Length . e_S, e_S = e_L x e_D") \
+  X("Lift Per Length", "N/m", 1, "Force Per Length . e_L (lift direction, orthogonal to e_D)") \
+  X("Cumulative Force", "N", 3, "force of this bin and all bins before it (from the first bin)") \
+  X("Moment", "N m", 3, "the bin's own moment about the Moment Centre: each face part's force at the part's area centroid")
+
+/// Load Distribution's table field data: X(name, unit, components, meaning).
+#define WALLLOADS_DISTRIBUTION_FIELDS(X)                                                           \
+  X("Axis Origin", "m", 3, "point from which Start, End and Centre are measured") \
+  X("Axis Direction", "-", 3, "unit axis of the bins") \
+  X("Bin Width", "m", 1, "(range end - range start) / Number Of Bins") \
+  X("Moment Centre", "m", 3, "r0 of the moments") \
+  X("Drag Direction", "-", 3, "e_D: Drag Direction, or Wall Traction's Load Direction") \
+  X("Side Direction", "-", 3, "e_S = e_L x e_D") \
+  X("Lift Direction", "-", 3, "e_L: Lift Direction made orthogonal to e_D") \
+  X("Skipped Faces", "-", 1, "faces without a finite force, area or geometry (skipped by Wall Traction), left out") \
+  X("Area Outside Range", "m^2", 1, "wall area outside the custom Range (in no bin)")
+
 /// One named output and its unit.
 struct NamedUnit
 {
@@ -188,6 +220,10 @@ inline const NamedUnit FaceArrays[] = { WALLLOADS_FACE_ARRAYS(WALLLOADS_MAKE_NAM
 inline const NamedUnit TractionFields[] = { WALLLOADS_TRACTION_FIELDS(WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit ShearArrays[] = { WALLLOADS_SHEAR_ARRAYS(WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit StatisticsColumns[] = { WALLLOADS_STATISTICS_COLUMNS(WALLLOADS_MAKE_NAMED_UNIT) };
+inline const NamedUnit DistributionColumns[] = { WALLLOADS_DISTRIBUTION_COLUMNS(
+  WALLLOADS_MAKE_NAMED_UNIT) };
+inline const NamedUnit DistributionFields[] = { WALLLOADS_DISTRIBUTION_FIELDS(
+  WALLLOADS_MAKE_NAMED_UNIT) };
 
 #undef WALLLOADS_MAKE_LOAD_COLUMN
 #undef WALLLOADS_MAKE_NAMED_UNIT
@@ -235,6 +271,20 @@ inline const char* UnitOf(const char* name)
     }
   }
   for (const NamedUnit& u : RegionColumns)
+  {
+    if (std::strcmp(u.Name, name) == 0)
+    {
+      return u.Unit;
+    }
+  }
+  for (const NamedUnit& u : DistributionColumns)
+  {
+    if (std::strcmp(u.Name, name) == 0)
+    {
+      return u.Unit;
+    }
+  }
+  for (const NamedUnit& u : DistributionFields)
   {
     if (std::strcmp(u.Name, name) == 0)
     {

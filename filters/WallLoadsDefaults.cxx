@@ -20,6 +20,7 @@
 
 #include <algorithm>
 #include <cctype>
+#include <cmath>
 #include <sstream>
 
 namespace wallloads
@@ -226,6 +227,64 @@ void AgreeOnChoice(ArrayChoice& choice)
   choice.Name = name;
   choice.Tier = static_cast<int>(agreed[0]) / 2;
   choice.OnPoints = static_cast<int>(agreed[0]) % 2 == 1;
+}
+
+bool FieldVector(vtkFieldData* fd, const char* name, double* out, int components)
+{
+  vtkDataArray* a = fd ? fd->GetArray(name) : nullptr;
+  if (!a || a->GetNumberOfTuples() < 1 || a->GetNumberOfComponents() != components)
+  {
+    return false;
+  }
+  for (int k = 0; k < components; ++k)
+  {
+    out[k] = a->GetComponent(0, k);
+    if (!std::isfinite(out[k]))
+    {
+      return false;
+    }
+  }
+  return true;
+}
+
+bool ResolveLoadAxes(const double dragIn[3], const double liftIn[3], vtkFieldData* upstream,
+  ResolvedAxes& out, std::string& error)
+{
+  double drag[3] = { dragIn[0], dragIn[1], dragIn[2] };
+  double lift[3] = { liftIn[0], liftIn[1], liftIn[2] };
+  out.DragFrom = "set here";
+  if (Norm(drag) == 0)
+  {
+    out.DragFrom = "Wall Traction's Load Direction";
+    if (!FieldVector(upstream, "Load Direction", drag, 3) || !(Norm(drag) > 0))
+    {
+      drag[0] = 1;
+      drag[1] = drag[2] = 0;
+      out.DragFrom = "default";
+    }
+  }
+  out.LiftFrom = "set here";
+  if (Norm(lift) == 0)
+  {
+    // +z made orthogonal to the drag, or +x when the drag is along z.
+    const double nd = Norm(drag);
+    const bool alongZ = nd > 0 && std::fabs(drag[2]) > (1 - 1e-9) * nd;
+    lift[0] = alongZ ? 1 : 0;
+    lift[1] = 0;
+    lift[2] = alongZ ? 0 : 1;
+    out.LiftFrom = alongZ ? "default: +x, the drag being along z" : "default: +z";
+  }
+  if (!MakeLoadAxes(drag, lift, out.Axes))
+  {
+    std::ostringstream os;
+    os << "Drag Direction (" << drag[0] << ", " << drag[1] << ", " << drag[2] << ", "
+       << out.DragFrom << ") and Lift Direction (" << lift[0] << ", " << lift[1] << ", "
+       << lift[2] << ", " << out.LiftFrom
+       << ") must be non-zero and not parallel: set Lift Direction.";
+    error = os.str();
+    return false;
+  }
+  return true;
 }
 
 void SetUnits(vtkAbstractArray* array, const char* unit)

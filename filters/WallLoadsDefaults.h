@@ -8,6 +8,7 @@
  * module.
  */
 #include "WallLoadsPipeline.h" // ArraySelection
+#include "wallloads/LoadAxes.h" // LoadAxes
 #include "vtkType.h"
 
 #include <string>
@@ -100,6 +101,29 @@ constexpr int OrientationStoredIntoWall = 0, OrientationWallNormalArray = 2;
 void ResolveAutomatic(AutomaticChoices& choices, bool autoPressure, bool autoShear,
   bool autoOrientation, const std::vector<vtkDataSet*>& surfaces, double viscosity,
   bool kinematic, std::string& notice, std::string& warning);
+
+/// A field value of `components` finite numbers (the first tuple of the
+/// array `name` of `fd`); false when absent, of another width or not finite.
+bool FieldVector(vtkFieldData* fd, const char* name, double* out, int components);
+
+/// The load axes the integrators use, and where each direction came from.
+struct ResolvedAxes
+{
+  LoadAxes<double> Axes;
+  std::string DragFrom, LiftFrom;
+};
+
+/**
+ * Load Integration's load axes from its DragDirection and LiftDirection:
+ * a drag direction (0, 0, 0) takes Wall Traction's `Load Direction` from the
+ * input's field data `upstream`, else (1, 0, 0); a lift direction (0, 0, 0)
+ * is +z made orthogonal to the drag, or +x when the drag is along z. False,
+ * with `error` naming both directions, when no axes can be made (zero or
+ * parallel directions). Every filter that reports drag, side force and lift
+ * resolves them here.
+ */
+bool ResolveLoadAxes(const double dragIn[3], const double liftIn[3], vtkFieldData* upstream,
+  ResolvedAxes& out, std::string& error);
 
 /// Set vtkDataArray::UNITS_LABEL() on an array.
 void SetUnits(vtkAbstractArray* array, const char* unit);

@@ -186,41 +186,14 @@ bool ResolveReference(vtkLoadIntegration* self, vtkFieldData* upstream, Referenc
   ref.Values.Span = self->GetReferenceSpan();
   self->GetMomentCentre(ref.Centre);
 
-  double drag[3], lift[3];
-  self->GetDragDirection(drag);
-  self->GetLiftDirection(lift);
-  ref.DragFrom = "set here";
-  if (Norm(drag) == 0)
+  ResolvedAxes axes;
+  if (!ResolveLoadAxes(self->GetDragDirection(), self->GetLiftDirection(), upstream, axes, error))
   {
-    ref.DragFrom = "Wall Traction's Load Direction";
-    if (!FieldValue(upstream, "Load Direction", drag, 3) || !(Norm(drag) > 0))
-    {
-      drag[0] = 1;
-      drag[1] = drag[2] = 0;
-      ref.DragFrom = "default";
-    }
-  }
-  ref.LiftFrom = "set here";
-  if (Norm(lift) == 0)
-  {
-    // +z made orthogonal to the drag, or +x when the drag is along z.
-    const double nd = Norm(drag);
-    const bool alongZ = nd > 0 && std::fabs(drag[2]) > (1 - 1e-9) * nd;
-    lift[0] = alongZ ? 1 : 0;
-    lift[1] = 0;
-    lift[2] = alongZ ? 0 : 1;
-    ref.LiftFrom = alongZ ? "default: +x, the drag being along z" : "default: +z";
-  }
-  if (!MakeLoadAxes(drag, lift, ref.Axes))
-  {
-    std::ostringstream os;
-    os << "Drag Direction (" << drag[0] << ", " << drag[1] << ", " << drag[2] << ", "
-       << ref.DragFrom << ") and Lift Direction (" << lift[0] << ", " << lift[1] << ", "
-       << lift[2] << ", " << ref.LiftFrom
-       << ") must be non-zero and not parallel: set Lift Direction.";
-    error = os.str();
     return false;
   }
+  ref.Axes = axes.Axes;
+  ref.DragFrom = axes.DragFrom;
+  ref.LiftFrom = axes.LiftFrom;
   return true;
 }
 

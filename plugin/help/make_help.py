@@ -120,6 +120,8 @@ def visibility(prop, proxy):
         other = proxy.find("*[@name='%s']" % dec.get("property"))
         values = (dec.get("value") or dec.get("values") or "").split()
         texts = dict(enum_entries(other)) if other is not None else {}
+        if other is not None and other.find("BooleanDomain") is not None:
+            texts = {"1": "on", "0": "off"}
         shown = " or ".join("'%s'" % texts.get(v, v) for v in values)
         notes.append("shown when %s is %s" % (pretty_label(dec.get("property")), shown))
     return "; ".join(notes)
@@ -223,6 +225,16 @@ def outputs_section(proxy_name, cols):
         parts.append("<p>Every statistic, the spectral ones included, is computed over the statistics "
                      "window. NaN where undefined (fewer than 8 samples, constant quantity), with a "
                      "warning.</p>")
+    elif proxy_name == "LoadDistribution":
+        parts.append("<h3>Output table (one row per bin; opens in a line chart view)</h3>")
+        parts.append(table(["Column", "Unit", "Components", "How it is computed"],
+                           [[esc(n), unit_text(u), c, esc(m)] for n, u, c, m in cols["WALLLOADS_DISTRIBUTION_COLUMNS"]]))
+        parts.append("<p>Every face is cut exactly by the bin planes and its force shared in proportion "
+                     "to the cut areas, so the bins add up to Load Integration's totals. Every column "
+                     "carries its unit as array information (UNITS_LABEL).</p>")
+        parts.append("<h3>Field data of the table</h3>")
+        parts.append(table(["Value", "Unit", "Components", "Meaning"],
+                           [[esc(n), unit_text(u), c, esc(m)] for n, u, c, m in cols["WALLLOADS_DISTRIBUTION_FIELDS"]]))
     return "\n".join(parts)
 
 
@@ -274,7 +286,8 @@ def main(argv):
     cols = parse_columns(header)
     for key in ("WALLLOADS_LOAD_COLUMNS", "WALLLOADS_REGION_COLUMNS", "WALLLOADS_REFERENCE_COLUMNS",
                 "WALLLOADS_FACE_ARRAYS", "WALLLOADS_TRACTION_FIELDS", "WALLLOADS_SHEAR_ARRAYS",
-                "WALLLOADS_STATISTICS_COLUMNS"):
+                "WALLLOADS_STATISTICS_COLUMNS", "WALLLOADS_DISTRIBUTION_COLUMNS",
+                "WALLLOADS_DISTRIBUTION_FIELDS"):
         if not cols.get(key):
             raise SystemExit("make_help.py: %s not found in %s" % (key, header))
     os.makedirs(outdir, exist_ok=True)

@@ -9,12 +9,12 @@ Each seed makes one case: a random input (well formed or hostile: random cell
 kinds, NaN/Inf and extreme coordinates, ids past the last point, arrays of the
 wrong kind, width or length, string arrays, odd ghost arrays, empty and nested
 blocks, image blocks) and random settings, through Wall Traction -> Load
-Integration, or Shear Projection (-> Wall Traction -> Load Integration), or
-Load Integration on input that did not come from Wall Traction, or Load
-History over a random number of time steps of random tables or field data
-(NaN, Inf, huge and constant values, columns that come and go, no region
-column, random range, stride and statistics start). After every filter it
-checks:
+Integration (and Load Distribution), or Shear Projection (-> Wall Traction
+-> Load Integration), or Load Integration on input that did not come from
+Wall Traction, or Load History over a random number of time steps of random
+tables or field data (NaN, Inf, huge and constant values, columns that come
+and go, no region column, random range, stride and statistics start). After
+every filter it checks:
 
 - no crash and no hang (a watchdog ends the run with the stack after 60 s);
 - the input is unchanged (a digest of every point, cell and array);
@@ -22,6 +22,8 @@ checks:
   per-face array with one tuple per cell;
 - Wall Traction: the faces carrying NaN are exactly the counted skipped faces;
 - Load Integration: totals finite, or a warning was given;
+- Load Distribution: one row per bin, values finite or a warning, and over
+  the faces' own extent the bins add up to Load Integration's area and force;
 - Sequential and STDThread backends give the same output to 1e-12;
 - clean cases: per-face forces and totals equal an independent numpy
   computation (fuzz_oracle.py) to 1e-9 of their scale.
@@ -50,7 +52,7 @@ from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkDataObjectTre
                                            vtkDataSet, vtkPointSet, vtkPolyData,
                                            vtkRectilinearGrid, vtkUnstructuredGrid)
 from vtkmodules.vtkCommonExecutionModel import vtkTrivialProducer  # noqa: E402
-from wallloads.WallLoadsFilters import (vtkLoadHistory, vtkLoadIntegration,  # noqa: E402
+from wallloads.WallLoadsFilters import (vtkLoadDistribution, vtkLoadHistory, vtkLoadIntegration,  # noqa: E402
                                         vtkShearProjection, vtkWallTraction)
 
 RTOL_BACKENDS = 1e-12
@@ -325,6 +327,50 @@ def make_load_integration(s):
     return li
 
 
+def load_distribution_settings(rng, clean):
+    s = {"AxisOrigin": list(rng.normal(size=3)), "AxisDirection": list(rng.normal(size=3)),
+         "NumberOfBins": int(rng.choice([1, 2, 7, 50, 333])), "UseCustomRange": int(rng.random() < 0.3),
+         "Range": sorted(float(x) for x in rng.normal(size=2)), "MomentCentre": list(rng.normal(size=3)),
+         "DragDirection": list(rng.normal(size=3)), "LiftDirection": list(rng.normal(size=3))}
+    if not clean:
+        for key in ("AxisOrigin", "AxisDirection", "MomentCentre", "DragDirection", "LiftDirection"):
+            s[key] = I.hostile_vector(rng, s[key])
+        if rng.random() < 0.2:
+            s["NumberOfBins"] = int(rng.choice([0, -1, 100001, 2 ** 31 - 1]))
+        if rng.random() < 0.2:
+            s["Range"] = [float(I.hostile_number(rng, v)) for v in s["Range"]][::int(rng.choice([1, -1]))]
+    return s
+
+
+def make_load_distribution(s):
+    ld = vtkLoadDistribution()
+    for key, value in s.items():
+        getattr(ld, "Set" + key)(*value) if isinstance(value, list) else getattr(ld, "Set" + key)(value)
+    return ld
+
+
+def check_load_distribution(s, outs, msgs, li_out):
+    table = outs[0]
+    n = table.GetNumberOfRows()
+    check(n in (0, s["NumberOfBins"]), "Load Distribution: %d rows for %d bins" % (n, s["NumberOfBins"]))
+    check(n > 0 or msgs.warnings, "Load Distribution: an empty table without a warning")
+    cols = numeric_output(table)
+    check(all(np.isfinite(v).all() for v in cols.values()) or msgs.warnings,
+          "Load Distribution: non-finite values without a warning")
+    if n == 0 or s["UseCustomRange"] or li_out is None:
+        return
+    width = cols["table/End"] - cols["table/Start"]
+    forces = cols["table/Force Per Length"].reshape(-1, 3) * width[:, None]
+    area, force = field_value(li_out, "Area")[0], field_value(li_out, "Force")
+    if not (np.isfinite(forces).all() and np.isfinite(force).all() and np.isfinite(area)):
+        return
+    scale = np.abs(forces).sum() + np.abs(force).sum()
+    check(abs(cols["table/Area"].sum() - area) <= RTOL_ORACLE * max(abs(area), 1e-300),
+          "Load Distribution: bin areas add up to %r, Load Integration %r" % (cols["table/Area"].sum(), area))
+    check(np.all(np.abs(forces.sum(axis=0) - force) <= RTOL_ORACLE * scale + 1e-300),
+          "Load Distribution: bin forces add up to %s, Load Integration %s" % (forces.sum(axis=0), force))
+
+
 def shear_projection_settings(rng, volume, clean):
     have = available(volume)
     s = {"Method": int(rng.integers(0, 4)), "Viscosity": float(rng.uniform(1e-5, 1.0)),
@@ -489,6 +535,18 @@ def run_surface_chain(rng, clean, stats):
         if clean and "RegionArray" not in ls:
             check_against_oracle(data, ws, ls, wt_out, outs2[0])
             stats["oracle"] += 1
+    # Load Distribution on the same Wall Traction output, its settings drawn
+    # from a child of the case's random stream (the other draws, and so the
+    # cases of every seed, stay as they were).
+    seq = getattr(rng.bit_generator, "seed_seq", None) or rng.bit_generator._seed_seq  # numpy < 1.25
+    rng_ld = np.random.default_rng(seq.spawn(1)[0])
+    ds = load_distribution_settings(rng_ld, clean)
+    ok3, outs3, msgs3 = run_both_backends(lambda: make_load_distribution(ds), [wt_out])
+    check(digest(wt_out) == before_li, "Load Distribution modified its input")
+    check_failure_reported("Load Distribution", ok3, msgs3)
+    stats["ld_ok" if ok3 else "ld_fail"] += 1
+    if ok3:
+        check_load_distribution(ds, outs3, msgs3, outs2[0] if ok2 else None)
 
 
 def run_raw_integration(rng, clean, stats):

@@ -10,7 +10,8 @@ same filters with the same settings (taken from the seed alone). Checks:
 - nothing hangs (a watchdog ends the run with the stack after 60 s) or crashes;
 - every rank reaches the same verdict (all succeed or all fail), and a failing
   run carries an error message on at least one rank;
-- the global field-data totals are the same on every rank.
+- the global field-data totals are the same on every rank;
+- Load Distribution: the table on rank 0 only, one row per bin.
 
 A failed check prints the seed and exits 1 on every rank.
 """
@@ -105,6 +106,17 @@ def run_case(seed, stats):
         stats["li_ok" if ok2 else "li_fail"] += 1
         if ok2:
             same_on_all_ranks(outs2[0], F.TOTAL_NAMES, "Load Integration")
+        # Load Distribution on the same Wall Traction output; its settings from
+        # a stream of their own, the same on every rank.
+        ds = F.load_distribution_settings(np.random.default_rng([seed, 1 << 30]), clean=False)
+        ok3, outs3, msgs3 = F.execute(F.make_load_distribution(ds), [outs[0]])
+        ok3 = agree(ok3, msgs3, "Load Distribution")
+        stats["ld_ok" if ok3 else "ld_fail"] += 1
+        if ok3:
+            rows = outs3[0].GetNumberOfRows()
+            F.check(rows in (0, ds["NumberOfBins"]) if RANK == 0 else rows == 0,
+                    "Load Distribution: %d rows on rank %d for %d bins (the table is on rank 0 only)"
+                    % (rows, RANK, ds["NumberOfBins"]))
     else:
         if data is None:
             data = F.vtkPolyData()

@@ -53,6 +53,13 @@ T.expect("Shear Projection page: Velocity's real default, None for every optiona
          and all(defaults.get(k) == "None" for k in ("WallVelocity", "VelocityGradient", "ViscosityArray",
                                                      "TurbulentViscosityArray", "DensityArray")), str(defaults))
 T.expect("Shear Projection page: no 'must contain' restriction", "must contain" not in sp)
+ld = open(os.path.join(HELP, "filters.LoadDistribution.html")).read()
+missing = [(n, u) for n, u, c, m in cols["WALLLOADS_DISTRIBUTION_COLUMNS"] + cols["WALLLOADS_DISTRIBUTION_FIELDS"]
+           if row_of(ld, n) != (u or "-")]
+T.expect("Load Distribution page: every table column and field value with its unit", not missing, str(missing))
+T.expect("Load Distribution page: every property documented, with its default",
+         all("<code>%s</code>" % p in ld for p in ("AxisOrigin", "AxisDirection", "NumberOfBins", "UseCustomRange",
+                                                    "Range", "MomentCentre", "DragDirection", "LiftDirection")))
 T.expect("when a property is shown is stated", "shown when Shear Source is 'Wall shear stress array'" in wt)
 T.expect("panel labels and scripting names", "<b>Reference Pressure</b><br/><code>ReferencePressure</code>" in wt)
 T.expect("overview: what each filter does and both paths",
@@ -69,7 +76,7 @@ qhp = open(os.path.join(HELP, "WallLoads.qhp")).read()
 T.expect("table of contents: the overview first, then every filter",
          re.search(r"<toc><section title=\"WallLoads\" ref=\"wallloads_overview.html\">"
                    r"<section title=\"Overview and workflows\"", qhp) is not None
-         and all('ref="filters.%s.html"' % n in qhp for n in ("WallTraction", "LoadIntegration", "ShearProjection")))
+         and all('ref="filters.%s.html"' % n in qhp for n in ("WallTraction", "LoadIntegration", "ShearProjection", "LoadDistribution")))
 T.expect("table of contents: Load History", 'ref="filters.LoadHistory.html"' in qhp)
 T.expect("the compiled help exists", os.path.getsize(os.path.join(HELP, "WallLoads.qch")) > 10000)
 T.done("test_help_pages")

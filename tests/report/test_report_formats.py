@@ -174,3 +174,19 @@ code, _, err = R.run(["--images", "no", "--time-range", "2,3", "-o", os.path.joi
 R.expect("--time-range outside the steps: exit 1 naming the range and the steps", code == 1
          and "time.range [2, 3] s holds none of the case's 3 time steps (0 to 1 s)" in err, err[-300:])
 R.done(__file__ + " (time selection)")
+
+# A wall across the distribution axis spans no length along it (the floor
+# alone, axis along z): the loads are still reported, and the distribution
+# is left out with Load Distribution's reason.
+out3 = os.path.join(W, "out-flat")
+code, _, err = R.run(["--images", "no", "--walls", "floor", "--distribution-axis", "0,0,1", "-o", out3,
+                      files["walls"]])
+R.expect("floor across the distribution axis: exit 0", code == 0, err[-800:] if code else "")
+R.expect("floor across the distribution axis: loads written, no distribution.csv",
+         os.path.exists(os.path.join(out3, "walls", "loads.csv"))
+         and not os.path.exists(os.path.join(out3, "walls", "distribution.csv")))
+record = R.read_json(os.path.join(out3, "walls", "loads.json"))
+reasons = [r for r in record.get("left_out", []) if r.startswith("no distribution")]
+R.expect("floor across the distribution axis: the reason is recorded",
+         len(reasons) == 1 and "span no length along the axis" in reasons[0], record.get("left_out"))
+R.done(__file__ + " (distribution left out)")

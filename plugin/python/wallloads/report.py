@@ -463,7 +463,13 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
     # -- distribution and history (when this build has the filters) --------------
     extras = {}
     if hasattr(simple, "LoadDistribution"):
-        extras["distribution"] = _distribution(simple, settings, wt, t, drag, lift, made, stage)
+        try:
+            extras["distribution"] = _distribution(simple, settings, wt, t, drag, lift, made, stage)
+        except batch.PipelineError as error:
+            # E.g. flat walls across the axis (no length along it): the loads
+            # are still reported, the distribution is said to be left out.
+            extras["distribution"] = None
+            left_out.append("no distribution: %s" % error)
     else:
         extras["distribution"] = None
         left_out.append("no distribution: this build has no Load Distribution filter")

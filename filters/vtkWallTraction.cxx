@@ -3,8 +3,10 @@
 
 #include "WallLoadsColumns.h"
 #include "WallLoadsDefaults.h"
+#include "WallLoadsMeshCache.h"
 #include "WallLoadsPipeline.h"
 #include "wallloads/CompensatedSum.h"
+#include "wallloads/EdgeBalance.h"
 #include "wallloads/FaceGeometry.h"
 #include "wallloads/OrientationCheck.h"
 #include "wallloads/Traction.h"
@@ -101,6 +103,15 @@ struct ThreadTally
 {
   CompensatedSum<double> Area;
   vtkIdType NonSurface = 0, Degenerate = 0, NonFinite = 0, Faces = 0;
+  EdgeBalance Balance; ///< orientation certificate, when the check runs
+};
+
+/// What the filter keeps between executions (WallLoadsMeshCache.h).
+struct LeafCache
+{
+  MeshResultCache* Results = nullptr;
+  OutputArrayPool* Pool = nullptr;
+  std::size_t Slot = 0; ///< leaf ordinal
 };
 
 template <typename I, typename P>
@@ -110,6 +121,7 @@ struct FaceLoop
   const Inputs& In;
   const Outputs& Out;
   const FaceTopology<I>& Topo;
+  bool Balance = false; ///< accumulate the orientation certificate
   vtkSMPThreadLocal<ThreadTally> Local;
 
   FaceLoop(const Settings& s, const Inputs& in, const Outputs& out, const FaceTopology<I>& topo)
@@ -161,14 +173,20 @@ struct FaceLoop
       const int n = Topo.Corners(c, ids, buffer);
       if (n == 0)
       {
-        Out.FaceOk[c] = 0;
+        if (Out.FaceOk)
+        {
+          Out.FaceOk[c] = 0;
+        }
         this->MarkSkipped(c);
         tally.NonSurface += counted;
         continue;
       }
-      FaceFrame<double> frame;
-      const FaceStatus status = ComputeFaceFrame<double>(points, ids, n, frame);
-      Out.FaceOk[c] = status == FaceStatus::Ok;
+      FaceFrame<double> frame; // normal and area only (no centroid here)
+      const FaceStatus status = ComputeFaceNormal<double>(points, ids, n, frame.Normal, frame.Area);
+      if (Out.FaceOk)
+      {
+        Out.FaceOk[c] = status == FaceStatus::Ok;
+      }
       if (status != FaceStatus::Ok)
       {
         this->MarkSkipped(c);
@@ -182,9 +200,14 @@ struct FaceLoop
           frame.Normal[1] * In.WallNormal.Get(c, 1) + frame.Normal[2] * In.WallNormal.Get(c, 2);
         sign = d > 0 ? 1.0 : (d < 0 ? -1.0 : std::numeric_limits<double>::quiet_NaN());
       }
-      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0)
+      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0 && Out.FaceOk)
       {
         Out.FaceOk[c] = 2;
+      }
+      if (this->Balance && counted)
+      {
+        // The faces the orientation check takes: valid geometry, counted.
+        tally.Balance.AddFace(ids, n, S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0);
       }
       const double normal[3] = { sign * frame.Normal[0], sign * frame.Normal[1],
         sign * frame.Normal[2] };
@@ -280,16 +303,28 @@ struct FaceLoop
 
 
 template <typename I, typename P>
-void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, Tally& tally)
+void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, Tally& tally,
+  const LeafCache& cache, vtkDataArray* wallNormal)
 {
-  // One byte per face: faces whose geometry is valid take part in the
-  // orientation check even when their values are NaN (no false open edges).
-  std::vector<std::uint8_t> faceOk(static_cast<std::size_t>(ds->GetNumberOfCells()), 0);
-  out.FaceOk = faceOk.data();
+  // The orientation check depends on the mesh only (and on the Wall Normal
+  // array when it decides the orientation): reused while that is unchanged.
+  double orientation[MeshResultCache::NumValues] = { 0, 0 };
+  const bool check = s.CheckOrientation &&
+    !(cache.Results && cache.Results->Find(cache.Slot, ds, wallNormal, orientation));
+  // One byte per face, only when the check runs: faces whose geometry is
+  // valid take part in it even when their values are NaN (no false open edges).
+  std::vector<std::uint8_t> faceOk;
+  if (check)
+  {
+    faceOk.assign(static_cast<std::size_t>(ds->GetNumberOfCells()), 0);
+    out.FaceOk = faceOk.data();
+  }
   FaceTopology<I> topo;
   MakeFaceTopology<I>(ds, topo);
   FaceLoop<I, P> loop(s, in, out, topo);
+  loop.Balance = check;
   vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
+  EdgeBalance balance;
   // Merge thread tallies in a fixed order of their values: compensated sums
   // make the total independent of how the faces were split among threads.
   for (const ThreadTally& t : loop.Local)
@@ -299,8 +334,15 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
     tally.Degenerate += t.Degenerate;
     tally.NonFinite += t.NonFinite;
     tally.Faces += t.Faces;
+    balance.Merge(t.Balance);
   }
-  if (s.CheckOrientation)
+  if (check && balance.ClosedAndConsistent())
+  {
+    // Certified closed and consistently oriented in the face loop itself
+    // (EdgeBalance.h): the exact check would find 0 and 0.
+    orientation[0] = orientation[1] = 0;
+  }
+  else if (check)
   {
     const std::uint8_t* ok = faceOk.data();
     const unsigned char* ghosts = in.Ghosts;
@@ -314,15 +356,32 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
     };
     const OrientationReport report =
       CheckOrientation<I>(ds->GetNumberOfCells(), ds->GetNumberOfPoints(), corners);
-    tally.Inconsistent += static_cast<double>(report.InconsistentFaces);
-    tally.OpenEdges += static_cast<double>(report.BoundaryEdges);
+    orientation[0] = static_cast<double>(report.InconsistentFaces);
+    orientation[1] = static_cast<double>(report.BoundaryEdges);
   }
+  if (check && cache.Results)
+  {
+    cache.Results->Store(cache.Slot, ds, wallNormal, orientation);
+  }
+  tally.Inconsistent += orientation[0];
+  tally.OpenEdges += orientation[1];
 }
 
 
-/// The per-face output arrays of a leaf, added to it.
-Outputs MakeOutputs(const Settings& s, vtkDataSet* out)
+/// The per-face output arrays of a leaf, added to it: reused from the pool
+/// when only the pool holds them (WallLoadsMeshCache.h), else new.
+Outputs MakeOutputs(const Settings& s, vtkDataSet* out, const LeafCache& cache)
 {
+  auto NewCellDoubleArray = [&](vtkDataSet* ds, const char* name, int components) -> double* {
+    if (!cache.Pool)
+    {
+      return wallloads::NewCellDoubleArray(ds, name, components);
+    }
+    vtkSmartPointer<vtkDoubleArray> a =
+      cache.Pool->Get(cache.Slot, name, components, ds->GetNumberOfCells());
+    ds->GetCellData()->AddArray(a);
+    return a->GetPointer(0);
+  };
   Outputs o;
   o.Full = s.AllArrays;
   o.Area = NewCellDoubleArray(out, names::FaceArea, 1);
@@ -351,7 +410,7 @@ Outputs MakeOutputs(const Settings& s, vtkDataSet* out)
 
 /// Process one leaf; returns false with `error` set on bad input.
 bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::string& blockName,
-  Tally& tally, std::string& error)
+  Tally& tally, std::string& error, const LeafCache& cache)
 {
   if (!CheckGhostArrays(in, blockName, error))
   {
@@ -361,7 +420,7 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   {
     // An empty piece (common on some ranks) needs no arrays; it gets the
     // output arrays, empty, so that every piece has the same arrays.
-    MakeOutputs(s, out);
+    MakeOutputs(s, out, cache);
     return true;
   }
   Inputs inputs;
@@ -398,7 +457,7 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   inputs.Points = MakePointView(in);
   inputs.Ghosts = CellGhostMask(in);
 
-  const Outputs o = MakeOutputs(s, out);
+  const Outputs o = MakeOutputs(s, out, cache);
   if (!inputs.Points.Data)
   {
     // Cells without points: nothing is a face.
@@ -412,7 +471,8 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
     return false;
   }
   DispatchFaces(in, inputs.Points.IsFloat, [&](auto id, auto pt) {
-    RunFaces<decltype(id), decltype(pt)>(s, inputs, o, in, tally);
+    RunFaces<decltype(id), decltype(pt)>(s, inputs, o, in, tally, cache,
+      inputs.WallNormal.Valid() ? in->GetCellData()->GetArray(names::WallNormal) : nullptr);
   });
   return true;
 }
@@ -476,8 +536,43 @@ void Report(vtkWallTraction* self, const Settings& s, const double* global,
 }
 } // namespace
 
+/// Mesh results and output arrays kept between executions.
+struct vtkWallTraction::Internals
+{
+  wallloads::MeshResultCache Results;
+  wallloads::OutputArrayPool Pool;
+};
+
+//------------------------------------------------------------------------------
+vtkWallTraction::~vtkWallTraction()
+{
+  delete this->Cache;
+}
+
+vtkIdType vtkWallTraction::GetMeshCacheHits()
+{
+  return this->Cache->Results.Hits + this->Cache->Results.ContentHits;
+}
+vtkIdType vtkWallTraction::GetMeshCacheContentHits()
+{
+  return this->Cache->Results.ContentHits;
+}
+vtkIdType vtkWallTraction::GetMeshCacheBuilds()
+{
+  return this->Cache->Results.Builds;
+}
+vtkIdType vtkWallTraction::GetOutputArraysReused()
+{
+  return this->Cache->Pool.Reused;
+}
+vtkIdType vtkWallTraction::GetOutputArraysAllocated()
+{
+  return this->Cache->Pool.Allocated;
+}
+
 //------------------------------------------------------------------------------
 vtkWallTraction::vtkWallTraction()
+  : Cache(new Internals)
 {
   // Nothing selected until the caller (or the ParaView proxy) chooses arrays.
   for (int i = PRESSURE_ARRAY; i <= TURBULENT_VISCOSITY_ARRAY; ++i)
@@ -592,6 +687,8 @@ int vtkWallTraction::RequestData(
   bool aborted = false;
   double doneCells = 0, surfaceCells = 0, passedCells = 0;
   std::vector<std::string> passed;
+  std::size_t leafSlot = 0;
+  this->Cache->Pool.Begin();
   auto process = [&](vtkDataSet* in, vtkDataSet* out, const std::string& name) {
     const double cells = static_cast<double>(in->GetNumberOfCells());
     if (ClassifyLeaf(in) == LeafKind::NoFaces)
@@ -602,7 +699,8 @@ int vtkWallTraction::RequestData(
     else
     {
       surfaceCells += cells;
-      ok = ProcessLeaf(s, in, out, name, tally, error);
+      LeafCache cache{ &this->Cache->Results, &this->Cache->Pool, leafSlot++ };
+      ok = ProcessLeaf(s, in, out, name, tally, error, cache);
       AttachFaceUnits(out, in);
     }
     doneCells += cells;
@@ -647,6 +745,9 @@ int vtkWallTraction::RequestData(
     error = std::string("Unsupported input type ") + input->GetClassName() + ".";
     ok = false;
   }
+
+  this->Cache->Pool.End();
+  this->Cache->Results.Resize(leafSlot);
 
   double global[12] = { ok ? 0.0 : 1.0, tally.WettedArea.Sum, tally.WettedArea.Carry,
     tally.NonSurface, tally.Degenerate, tally.NonFinite, tally.Inconsistent, tally.OpenEdges,

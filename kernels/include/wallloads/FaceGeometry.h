@@ -129,4 +129,73 @@ FaceStatus ComputeFaceFrame(const P* points, const I* ids, int numIds, FaceFrame
   return FaceStatus::Ok;
 }
 
+namespace detail
+{
+/// Pass 1 of ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time).
+template <int N, typename T, typename P, typename I>
+inline FaceStatus FaceNormalPass(
+  const P* points, const I* ids, int numIds, T normal[3], T& area, T relativeAreaTolerance)
+{
+  const int n = N > 0 ? N : numIds;
+  const P* p0 = points + 3 * ids[0];
+  const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
+  T a[3] = { 0, 0, 0 };
+  T prev[3];
+  Relative(points + 3 * ids[1], o, prev);
+  T size2 = Dot(prev, prev);
+  for (int k = 2; k < n; ++k)
+  {
+    T cur[3];
+    Relative(points + 3 * ids[k], o, cur);
+    T c[3];
+    Cross(prev, cur, c);
+    a[0] += c[0];
+    a[1] += c[1];
+    a[2] += c[2];
+    const T d2 = Dot(cur, cur);
+    size2 = d2 > size2 ? d2 : size2;
+    prev[0] = cur[0];
+    prev[1] = cur[1];
+    prev[2] = cur[2];
+  }
+  if (!AllFinite(a, 3) || !AllFinite(o, 3))
+  {
+    return FaceStatus::NonFinite;
+  }
+  const T twiceArea = Norm(a);
+  if (!(twiceArea > T(2) * relativeAreaTolerance * size2))
+  {
+    return FaceStatus::ZeroArea;
+  }
+  const T inv = T(1) / twiceArea;
+  normal[0] = a[0] * inv;
+  normal[1] = a[1] * inv;
+  normal[2] = a[2] * inv;
+  area = T(0.5) * twiceArea;
+  return FaceStatus::Ok;
+}
+} // namespace detail
+
+/**
+ * The unit normal and area of ComputeFaceFrame (the same operations, so the
+ * same values and status) without the centroid, for loops that need only
+ * those; triangles and quadrilaterals take unrolled paths.
+ */
+template <typename T, typename P, typename I>
+inline FaceStatus ComputeFaceNormal(const P* points, const I* ids, int numIds, T normal[3],
+  T& area, T relativeAreaTolerance = T(1e-14))
+{
+  switch (numIds)
+  {
+    case 3:
+      return detail::FaceNormalPass<3>(points, ids, 3, normal, area, relativeAreaTolerance);
+    case 4:
+      return detail::FaceNormalPass<4>(points, ids, 4, normal, area, relativeAreaTolerance);
+    default:
+      return numIds < 3
+        ? FaceStatus::TooFewPoints
+        : detail::FaceNormalPass<0>(points, ids, numIds, normal, area, relativeAreaTolerance);
+  }
+}
+
 } // namespace wallloads

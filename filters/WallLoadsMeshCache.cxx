@@ -201,12 +201,18 @@ vtkSmartPointer<vtkDoubleArray> OutputArrayPool::Get(
   Entry* replace = nullptr;
   for (Entry& e : this->Entries)
   {
+    if (e.Slot == slot && e.Name == name)
+    {
+      e.Asked = this->Generation; // kept, even if held elsewhere now
+    }
+  }
+  for (Entry& e : this->Entries)
+  {
     if (e.Slot != slot || e.Name != name)
     {
       continue;
     }
     ++mine;
-    e.Asked = this->Generation;
     // Only the pool holds it: nobody can see it change.
     const bool free = e.Array->GetReferenceCount() == 1;
     if (free && e.Taken != this->Generation && e.Array->GetNumberOfComponents() == components &&

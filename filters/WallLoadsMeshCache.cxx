@@ -31,6 +31,12 @@ MeshIdentity MeshIdentity::Of(vtkDataSet* ds, vtkDataArray* extra)
     id.Arrays.push_back(a);
     id.Counts.push_back(a ? a->GetNumberOfValues() : -1);
   };
+  // The dataset's own modification time (not the one that includes its
+  // arrays, which change every step): a caller that edits connectivity or
+  // points in place and calls ds->Modified() is seen.
+  id.Objects.emplace_back(ds);
+  id.Times.push_back(ds->vtkObject::GetMTime());
+  id.Present.push_back(true);
   id.Counts.push_back(ds->GetNumberOfPoints());
   id.Counts.push_back(ds->GetNumberOfCells());
   vtkPoints* points = nullptr;

@@ -11,7 +11,9 @@
  *   and an optional extra array (the Wall Normal array when it decides the
  *   orientation). "Unchanged" is decided in two steps:
  *     1. the same objects (held weakly: a freed object never matches a new
- *        one at the same address) with the same modification times;
+ *        one at the same address) with the same modification times, the
+ *        dataset's own time included (so an in-place edit followed by
+ *        ds->Modified() is seen; its arrays' new values are not part of it);
  *     2. otherwise, for readers that hand over new objects with the same
  *        content on every step, the same counts and the same 64-bit content
  *        hash (ContentHash.h) of those arrays' bytes, computed threaded at

@@ -12,24 +12,27 @@
  * boundary edges; this certificate proves it without gathering the faces
  * around each point.
  *
- * The multisets are compared through a polynomial fingerprint over the prime
- * field p = 2^61 - 1: with g(a) a hash of the point id reduced modulo p,
+ * The multisets are compared through a polynomial fingerprint: with g(a) a
+ * 64-bit hash of the point id and arithmetic modulo 2^64,
  *
- *   D = sum over half-edges (a, b) of  g(a) g(b)^2 - g(b) g(a)^2   (mod p).
+ *   D = sum over half-edges (a, b) of  g(a) g(b)^2 - g(b) g(a)^2.
  *
- * D is the value of the polynomial sum_{a<b} C_ab g_a g_b (g_b - g_a), C_ab =
- * count(a->b) - count(b->a), which is the zero polynomial exactly when every
- * C_ab is 0. By the Schwartz-Zippel lemma an unbalanced surface gives D = 0
- * for at most 3 in p (about 1e-18) of random point values; the hash stands in
- * for random values. D = 0 is therefore taken as the certificate; D != 0 is
- * proof that the surface is open or inconsistent, and the caller then runs
- * the exact check to count faces and edges. Faces that repeat a corner id
- * could use one edge both ways by themselves, which the exact check counts
- * differently: they mark the pass Irregular (no certificate).
+ * D is the value of sum_{a<b} C_ab g_a g_b (g_b - g_a), C_ab = count(a->b) -
+ * count(b->a), which is the zero polynomial exactly when every C_ab is 0.
+ * For hash values that behave as random, an unbalanced surface gives D = 0
+ * with a probability of about 2^-60 (a Schwartz-Zippel bound, weakened by
+ * the few factors of two that small counts C_ab can carry). D = 0 is taken
+ * as the certificate; D != 0 proves that the surface is open or
+ * inconsistent, and the caller then runs the exact check to count faces and
+ * edges. Faces that repeat a corner id could use one edge both ways by
+ * themselves, which the exact check counts differently: they mark the pass
+ * Irregular (no certificate). Edges used twice each way (non-manifold) keep
+ * D = 0, and the exact check, which joins faces only across edges of two
+ * users, then also finds 0 and 0: the reported counts agree.
  *
- * Cost: per face, one hash and one product per corner and two products per
- * edge; no memory. Passes over parts of the faces merge by addition, so the
- * pass is threaded in any split with the same result.
+ * Cost: per face, three multiplications per corner and two per edge, with
+ * no memory. Passes over parts of the faces merge by addition, so the pass
+ * is threaded in any split with the same result.
  */
 #include <cstdint>
 
@@ -38,29 +41,18 @@ namespace wallloads
 
 struct EdgeBalance
 {
-  static constexpr std::uint64_t Prime = (std::uint64_t(1) << 61) - 1;
-
-  std::uint64_t Forward = 0;  ///< sum of g(a) g(b)^2 over half-edges, mod p
-  std::uint64_t Backward = 0; ///< sum of g(b) g(a)^2 over half-edges, mod p
+  std::uint64_t Forward = 0;  ///< sum of g(a) g(b)^2 over half-edges (a, b), mod 2^64
+  std::uint64_t Backward = 0; ///< sum of g(b) g(a)^2 over half-edges (a, b), mod 2^64
   std::int64_t Faces = 0;
   bool Irregular = false; ///< a face repeats a corner id
 
-  static std::uint64_t Reduce(unsigned __int128 x)
-  {
-    // x mod p for p = 2^61 - 1: fold the high bits onto the low ones.
-    std::uint64_t r = static_cast<std::uint64_t>(x & Prime) +
-      static_cast<std::uint64_t>((x >> 61) & Prime) + static_cast<std::uint64_t>(x >> 122);
-    r = (r & Prime) + (r >> 61);
-    return r >= Prime ? r - Prime : r;
-  }
   static std::uint64_t Hash(std::uint64_t id)
   {
     // splitmix64 finaliser: a bijection of 64 bits with full avalanche.
     std::uint64_t z = id + 0x9E3779B97F4A7C15ull;
     z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ull;
     z = (z ^ (z >> 27)) * 0x94D049BB133111EBull;
-    z ^= z >> 31;
-    return z & Prime; // < p (the value p itself maps to 0 only for z == p)
+    return z ^ (z >> 31);
   }
 
   /// Add one face of `n` corner ids; `reversed` walks it backwards.
@@ -81,33 +73,24 @@ struct EdgeBalance
         this->Irregular |= ids[j] == ids[k];
       }
       g[k] = Hash(static_cast<std::uint64_t>(ids[k]));
-      g2[k] = Reduce(static_cast<unsigned __int128>(g[k]) * g[k]);
+      g2[k] = g[k] * g[k];
     }
-    // Each product is below 2^122: sum a few before reducing.
-    unsigned __int128 fwd = 0, bwd = 0;
+    std::uint64_t f = 0, r = 0;
     for (int k = 0; k < n; ++k)
     {
-      const int a = k;
       const int b = k + 1 == n ? 0 : k + 1;
-      fwd += static_cast<unsigned __int128>(g[a]) * g2[b];
-      bwd += static_cast<unsigned __int128>(g[b]) * g2[a];
-      if ((k & 7) == 7)
-      {
-        fwd = Reduce(fwd);
-        bwd = Reduce(bwd);
-      }
+      f += g[k] * g2[b];
+      r += g[b] * g2[k];
     }
-    const std::uint64_t f = Reduce(fwd);
-    const std::uint64_t r = Reduce(bwd);
-    this->Forward = Add(this->Forward, reversed ? r : f);
-    this->Backward = Add(this->Backward, reversed ? f : r);
+    this->Forward += reversed ? r : f;
+    this->Backward += reversed ? f : r;
     ++this->Faces;
   }
 
   void Merge(const EdgeBalance& other)
   {
-    this->Forward = Add(this->Forward, other.Forward);
-    this->Backward = Add(this->Backward, other.Backward);
+    this->Forward += other.Forward;
+    this->Backward += other.Backward;
     this->Faces += other.Faces;
     this->Irregular |= other.Irregular;
   }
@@ -115,13 +98,6 @@ struct EdgeBalance
   /// True: closed and consistently oriented (see above). False: unknown,
   /// run the exact check.
   bool ClosedAndConsistent() const { return !this->Irregular && this->Forward == this->Backward; }
-
-private:
-  static std::uint64_t Add(std::uint64_t a, std::uint64_t b)
-  {
-    const std::uint64_t s = a + b; // both below 2^61: no overflow
-    return s >= Prime ? s - Prime : s;
-  }
 };
 
 } // namespace wallloads

@@ -18,6 +18,14 @@
 
 #include <cstdint>
 
+/// Inlined into the face loops whatever the compiler's size heuristics say
+/// (a call per face costs more than the work in it).
+#if defined(__GNUC__) || defined(__clang__)
+#define WALLLOADS_FACE_INLINE inline __attribute__((always_inline))
+#else
+#define WALLLOADS_FACE_INLINE inline
+#endif
+
 namespace wallloads
 {
 
@@ -133,7 +141,7 @@ namespace detail
 {
 /// Pass 1 of ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time).
 template <int N, typename T, typename P, typename I>
-inline FaceStatus FaceNormalPass(
+WALLLOADS_FACE_INLINE FaceStatus FaceNormalPass(
   const P* points, const I* ids, int numIds, T normal[3], T& area, T relativeAreaTolerance)
 {
   const int n = N > 0 ? N : numIds;
@@ -182,7 +190,7 @@ inline FaceStatus FaceNormalPass(
  * those; triangles and quadrilaterals take unrolled paths.
  */
 template <typename T, typename P, typename I>
-inline FaceStatus ComputeFaceNormal(const P* points, const I* ids, int numIds, T normal[3],
+WALLLOADS_FACE_INLINE FaceStatus ComputeFaceNormal(const P* points, const I* ids, int numIds, T normal[3],
   T& area, T relativeAreaTolerance = T(1e-14))
 {
   switch (numIds)
@@ -202,7 +210,7 @@ namespace detail
 {
 /// ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time): the same operations.
 template <int N, typename T, typename P, typename I>
-inline FaceStatus FaceFramePass(
+WALLLOADS_FACE_INLINE FaceStatus FaceFramePass(
   const P* points, const I* ids, int numIds, FaceFrame<T>& frame, T relativeAreaTolerance)
 {
   const int n = N > 0 ? N : numIds;
@@ -257,7 +265,7 @@ inline FaceStatus FaceFramePass(
 /// ComputeFaceFrame (the same values and status) with unrolled paths for
 /// triangles and quadrilaterals, for face loops.
 template <typename T, typename P, typename I>
-inline FaceStatus ComputeFaceFrameFast(const P* points, const I* ids, int numIds,
+WALLLOADS_FACE_INLINE FaceStatus ComputeFaceFrameFast(const P* points, const I* ids, int numIds,
   FaceFrame<T>& frame, T relativeAreaTolerance = T(1e-14))
 {
   switch (numIds)

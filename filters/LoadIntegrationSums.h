@@ -35,64 +35,116 @@ struct LeafInputs
   long long RegionBase = 0; ///< smallest region-array value (global)
 };
 
-/// The running sums of one region as separate arrays, so that the sixteen
-/// compensated additions of a face run as one vectorised loop. The same
-/// operations as CompensatedSum::Add, slot by slot: the same values.
+/// Two doubles added lane by lane (SSE2 on x86-64): the same IEEE
+/// operations as two scalar ones, so the same values.
+#if defined(__GNUC__) || defined(__clang__)
+typedef double Lane2 __attribute__((vector_size(16)));
+inline Lane2 MakeLane(double a, double b)
+{
+  return Lane2{ a, b };
+}
+#else
+struct Lane2
+{
+  double V[2];
+  double operator[](int i) const { return this->V[i]; }
+  double& operator[](int i) { return this->V[i]; }
+};
+inline Lane2 operator+(Lane2 a, Lane2 b)
+{
+  return Lane2{ { a.V[0] + b.V[0], a.V[1] + b.V[1] } };
+}
+inline Lane2 operator-(Lane2 a, Lane2 b)
+{
+  return Lane2{ { a.V[0] - b.V[0], a.V[1] - b.V[1] } };
+}
+inline Lane2& operator+=(Lane2& a, Lane2 b)
+{
+  a = a + b;
+  return a;
+}
+inline Lane2 MakeLane(double a, double b)
+{
+  return Lane2{ { a, b } };
+}
+#endif
+
+/// The running sums of one region in pairs of slots (slot 2k and 2k+1 in
+/// lane k), so that the sixteen compensated additions of a face run as eight
+/// two-wide ones. The same operations as CompensatedSum::Add, slot by slot:
+/// the same values.
 struct SlotSums
 {
-  double S[NumLoadSlots];
-  double C[NumLoadSlots];
+  static constexpr std::size_t Lanes = NumLoadSlots / 2;
+  Lane2 S[Lanes];
+  Lane2 C[Lanes];
 
   void Load(const Sums& from)
   {
-    for (std::size_t k = 0; k < NumLoadSlots; ++k)
+    for (std::size_t k = 0; k < Lanes; ++k)
     {
-      this->S[k] = from.Sums.Terms[k].Sum;
-      this->C[k] = from.Sums.Terms[k].Carry;
+      this->S[k] = MakeLane(from.Sums.Terms[2 * k].Sum, from.Sums.Terms[2 * k + 1].Sum);
+      this->C[k] = MakeLane(from.Sums.Terms[2 * k].Carry, from.Sums.Terms[2 * k + 1].Carry);
     }
   }
   void Store(Sums& to) const
   {
-    for (std::size_t k = 0; k < NumLoadSlots; ++k)
+    for (std::size_t k = 0; k < Lanes; ++k)
     {
-      to.Sums.Terms[k].Sum = this->S[k];
-      to.Sums.Terms[k].Carry = this->C[k];
+      for (int j = 0; j < 2; ++j)
+      {
+        to.Sums.Terms[2 * k + j].Sum = this->S[k][j];
+        to.Sums.Terms[2 * k + j].Carry = this->C[k][j];
+      }
     }
   }
-  /// v[SkippedCountSlot] must be 0 (adding +0 to a count leaves it as is).
-  void AddAll(const double v[NumLoadSlots])
+  /// v holds the slot values in pairs; its SkippedCountSlot value must be 0
+  /// (adding +0 to a count leaves it as it is).
+  void AddAll(const Lane2 v[Lanes])
   {
-    for (std::size_t k = 0; k < NumLoadSlots; ++k)
+    for (std::size_t k = 0; k < Lanes; ++k)
     {
-      const double t = this->S[k] + v[k];
-      const double w = t - this->S[k];
+      const Lane2 t = this->S[k] + v[k];
+      const Lane2 w = t - this->S[k];
       this->C[k] += (this->S[k] - (t - w)) + (v[k] - w);
       this->S[k] = t;
     }
   }
+  /// One skipped face: the count alone.
+  void AddSkipped()
+  {
+    constexpr std::size_t k = SkippedCountSlot / 2;
+    constexpr int j = SkippedCountSlot % 2;
+    CompensatedSum<double> skipped{ this->S[k][j], this->C[k][j] };
+    skipped.Add(1.0);
+    this->S[k][j] = skipped.Sum;
+    this->C[k][j] = skipped.Carry;
+  }
 };
+static_assert(NumLoadSlots == 16 && AreaSlot == 0 && PressureForceSlot == 1 &&
+    ViscousForceSlot == 4 && PressureMomentSlot == 7 && ViscousMomentSlot == 10 &&
+    FaceCountSlot == 13 && SkippedCountSlot == 14 && ForceMagnitudeSlot == 15,
+  "FaceSlots pairs the slots in this order");
 
-/// The slot values LoadSums::AddFace adds for one face (the same operations).
+/// The slot values LoadSums::AddFace adds for one face (the same
+/// operations), in pairs of slots.
 inline void FaceSlots(double area, const double centroid[3], const double r0[3],
-  const double fp[3], const double fv[3], double v[NumLoadSlots])
+  const double fp[3], const double fv[3], Lane2 v[SlotSums::Lanes])
 {
   const double arm[3] = { centroid[0] - r0[0], centroid[1] - r0[1], centroid[2] - r0[2] };
   double mp[3];
   double mv[3];
   Cross(arm, fp, mp);
   Cross(arm, fv, mv);
-  v[AreaSlot] = area;
-  for (std::size_t i = 0; i < 3; ++i)
-  {
-    v[PressureForceSlot + i] = fp[i];
-    v[ViscousForceSlot + i] = fv[i];
-    v[PressureMomentSlot + i] = mp[i];
-    v[ViscousMomentSlot + i] = mv[i];
-  }
-  v[FaceCountSlot] = 1;
-  v[SkippedCountSlot] = 0;
   const double f[3] = { fp[0] + fv[0], fp[1] + fv[1], fp[2] + fv[2] };
-  v[ForceMagnitudeSlot] = Norm(f);
+  v[0] = MakeLane(area, fp[0]);
+  v[1] = MakeLane(fp[1], fp[2]);
+  v[2] = MakeLane(fv[0], fv[1]);
+  v[3] = MakeLane(fv[2], mp[0]);
+  v[4] = MakeLane(mp[1], mp[2]);
+  v[5] = MakeLane(mv[0], mv[1]);
+  v[6] = MakeLane(mv[2], 1.0);
+  v[7] = MakeLane(0.0, Norm(f));
 }
 
 template <typename I, typename P>
@@ -193,13 +245,10 @@ struct SumLoop
       if (!AllFinite(fp, 3) || !AllFinite(fv, 3) || !std::isfinite(area) ||
         ComputeFaceFrameFast<double>(points, ids, n, frame) != FaceStatus::Ok)
       {
-        CompensatedSum<double> skipped{ acc.S[SkippedCountSlot], acc.C[SkippedCountSlot] };
-        skipped.Add(1.0);
-        acc.S[SkippedCountSlot] = skipped.Sum;
-        acc.C[SkippedCountSlot] = skipped.Carry;
+        acc.AddSkipped();
         continue;
       }
-      double v[NumLoadSlots];
+      Lane2 v[SlotSums::Lanes];
       FaceSlots(area, frame.Centroid, this->R0, fp, fv, v);
       acc.AddAll(v);
     }

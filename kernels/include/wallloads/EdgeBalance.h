@@ -59,13 +59,31 @@ struct EdgeBalance
   template <typename I>
   void AddFace(const I* ids, int n, bool reversed)
   {
-    if (n > 64)
+    switch (n)
     {
-      this->Irregular = true; // never met on wall faces; the exact check handles it
-      return;
+      case 3:
+        this->AddFaceOf<3>(ids, 3, reversed);
+        return;
+      case 4:
+        this->AddFaceOf<4>(ids, 4, reversed);
+        return;
+      default:
+        if (n > 64)
+        {
+          this->Irregular = true; // never met on wall faces; the exact check handles it
+          return;
+        }
+        this->AddFaceOf<0>(ids, n, reversed);
     }
-    std::uint64_t g[64];
-    std::uint64_t g2[64];
+  }
+
+  /// AddFace for `N` corners (0: `n` at run time), unrolled for N > 0.
+  template <int N, typename I>
+  void AddFaceOf(const I* ids, int numIds, bool reversed)
+  {
+    const int n = N > 0 ? N : numIds;
+    std::uint64_t g[N > 0 ? N : 64];
+    std::uint64_t g2[N > 0 ? N : 64];
     for (int k = 0; k < n; ++k)
     {
       for (int j = 0; j < k; ++j)

@@ -112,6 +112,7 @@ bool MeshIdentity::ComputeHash()
     if (!a->HasStandardMemoryLayout())
     {
       this->HashKnown = false;
+      this->Arrays.clear();
       return false;
     }
     const std::size_t bytes =
@@ -146,6 +147,7 @@ bool MeshIdentity::ComputeHash()
   }
   this->Hash = h;
   this->HashKnown = true;
+  this->Arrays.clear(); // no raw pointer outlives the call
   return true;
 }
 

@@ -69,7 +69,7 @@ private:
   std::vector<vtkWeakPointer<vtkObject>> Objects;
   std::vector<vtkMTimeType> Times;
   std::vector<bool> Present;
-  std::vector<vtkDataArray*> Arrays; ///< hashed (valid while the dataset is alive)
+  std::vector<vtkDataArray*> Arrays; ///< to hash; cleared by ComputeHash
   std::vector<vtkIdType> Counts;
   std::uint64_t Hash = 0;
   bool HashKnown = false;

@@ -202,7 +202,10 @@ template <typename I>
 bool MakeFaceTopology(vtkDataSet* ds, FaceTopology<I>& topology);
 
 template <typename I>
-int FaceTopology<I>::Corners(vtkIdType cellId, const I*& ids, I buffer[4]) const
+#if defined(__GNUC__)
+__attribute__((always_inline))
+#endif
+inline int FaceTopology<I>::Corners(vtkIdType cellId, const I*& ids, I buffer[4]) const
 {
   if (!this->Types)
   {

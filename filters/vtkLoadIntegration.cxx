@@ -3,6 +3,7 @@
 
 #include "WallLoadsColumns.h"
 #include "WallLoadsDefaults.h"
+#include "LoadIntegrationSums.h"
 #include "WallLoadsPipeline.h"
 #include "wallloads/FaceGeometry.h"
 #include "wallloads/LoadAxes.h"
@@ -32,95 +33,7 @@ vtkStandardNewMacro(vtkLoadIntegration);
 namespace
 {
 using namespace wallloads;
-using Sums = LoadSums<double>;
-
-struct LeafInputs
-{
-  ArrayView ForceP, ForceV, Area, Region;
-  PointView Points;
-  const unsigned char* Ghosts = nullptr;
-  int FixedRegion = 0;  ///< region of the leaf when no region array is used
-  long long RegionBase = 0; ///< smallest region-array value (global)
-};
-
-template <typename I, typename P>
-struct SumLoop
-{
-  const LeafInputs& In;
-  const FaceTopology<I>& Topo;
-  const double* R0;
-  std::size_t NumRegions;
-  vtkSMPThreadLocal<std::vector<Sums>> Local;
-
-  SumLoop(const LeafInputs& in, const FaceTopology<I>& topo, const double* r0, std::size_t n)
-    : In(in)
-    , Topo(topo)
-    , R0(r0)
-    , NumRegions(n)
-  {
-  }
-
-  void Initialize() { this->Local.Local().assign(this->NumRegions, Sums()); }
-
-  void operator()(vtkIdType begin, vtkIdType end)
-  {
-    std::vector<Sums>& sums = this->Local.Local();
-    const P* points = static_cast<const P*>(In.Points.Data);
-    for (vtkIdType c = begin; c < end; ++c)
-    {
-      if (!IsCountedCell(In.Ghosts, c))
-      {
-        continue;
-      }
-      std::size_t region = static_cast<std::size_t>(In.FixedRegion);
-      if (In.Region.Valid())
-      {
-        region = static_cast<std::size_t>(std::llround(In.Region.Get(c, 0)) - In.RegionBase);
-      }
-      I buffer[4];
-      const I* ids = nullptr;
-      const int n = Topo.Corners(c, ids, buffer);
-      if (n == 0)
-      {
-        continue; // not a face (vertex, line, 3D cell): Wall Traction counted it
-      }
-      Sums& s = sums[region];
-      const double fp[3] = { In.ForceP.Get(c, 0), In.ForceP.Get(c, 1), In.ForceP.Get(c, 2) };
-      const double fv[3] = { In.ForceV.Get(c, 0), In.ForceV.Get(c, 1), In.ForceV.Get(c, 2) };
-      const double area = In.Area.Get(c, 0);
-      if (!AllFinite(fp, 3) || !AllFinite(fv, 3) || !std::isfinite(area))
-      {
-        s.AddSkipped();
-        continue;
-      }
-      FaceFrame<double> frame;
-      if (ComputeFaceFrame<double>(points, ids, n, frame) != FaceStatus::Ok)
-      {
-        s.AddSkipped();
-        continue;
-      }
-      s.AddFace(area, frame.Centroid, this->R0, fp, fv);
-    }
-  }
-
-  void Reduce() {}
-};
-
-template <typename I, typename P>
-void SumLeaf(const LeafInputs& in, vtkDataSet* ds, const double r0[3], std::vector<Sums>& total)
-{
-  FaceTopology<I> topo;
-  MakeFaceTopology<I>(ds, topo);
-  SumLoop<I, P> loop(in, topo, r0, total.size());
-  vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
-  for (const std::vector<Sums>& local : loop.Local)
-  {
-    for (std::size_t r = 0; r < total.size(); ++r)
-    {
-      total[r].Merge(local[r]);
-    }
-  }
-}
+using namespace wallloads::integration;
 
 /// The reference values of one execution and where each came from.
 struct ReferenceState

@@ -3,8 +3,11 @@
 
 #include "WallLoadsColumns.h"
 #include "WallLoadsDefaults.h"
+#include "WallLoadsMeshCache.h"
 #include "WallLoadsPipeline.h"
+#include "WallTractionFaces.h"
 #include "wallloads/CompensatedSum.h"
+#include "wallloads/EdgeBalance.h"
 #include "wallloads/FaceGeometry.h"
 #include "wallloads/OrientationCheck.h"
 #include "wallloads/Traction.h"
@@ -44,285 +47,22 @@ static_assert(wallloads::ShearNone == vtkWallTraction::NO_SHEAR &&
 namespace
 {
 using namespace wallloads;
+using namespace wallloads::traction;
 
-/// Everything one execution needs, read from the properties once.
-struct Settings
+/// The per-face output arrays of a leaf, added to it: reused from the pool
+/// when only the pool holds them (WallLoadsMeshCache.h), else new.
+Outputs MakeOutputs(const Settings& s, vtkDataSet* out, const LeafCache& cache)
 {
-  ArraySelection Pressure, DensityArray, WallShearStress, VelocityGradient, ViscosityArray,
-    TurbulentViscosity;
-  bool PressurePerUnitDensity = false;
-  bool ShearPerUnitDensity = false;
-  bool Kinematic = false;
-  int ShearSource = 0;
-  int Orientation = 0;
-  bool IncludeNormal = false;
-  bool CheckOrientation = true;
-  bool AllArrays = true;
-  double ReferencePressure = 0;
-  double Density = 1;
-  double Viscosity = 0;
-  double LoadDirection[3] = { 1, 0, 0 };
-  double DynamicPressure = 0; ///< 0: no coefficients
-};
-
-/// Local (this rank) results of one execution.
-struct Tally
-{
-  CompensatedSum<double> WettedArea;
-  double NonSurface = 0, Degenerate = 0, NonFinite = 0, Inconsistent = 0, OpenEdges = 0;
-  double Faces = 0;
-};
-
-/// Output arrays of one leaf, as raw pointers for the face loop.
-struct Outputs
-{
-  /// Orientation check: 0 invalid geometry, 1 valid, 2 valid and flipped
-  /// against the stored order by the Wall Normal array.
-  std::uint8_t* FaceOk = nullptr;
-  double* Area = nullptr;   // always made
-  double* ForceP = nullptr; // always made
-  double* ForceV = nullptr; // always made
-  double *Normal = nullptr, *TractionP = nullptr, *TractionV = nullptr, *Traction = nullptr,
-         *Force = nullptr, *NormalV = nullptr, *Directional = nullptr; // with all arrays
-  double* Cp = nullptr;
-  double* Cf = nullptr;
-  bool Full = true; ///< false: only Face Area, Pressure Force and Viscous Force
-};
-
-/// Inputs of one leaf.
-struct Inputs
-{
-  ArrayView Pressure, Density, Shear, Gradient, Viscosity, TurbulentViscosity, WallNormal;
-  PointView Points;
-  const unsigned char* Ghosts = nullptr;
-};
-
-struct ThreadTally
-{
-  CompensatedSum<double> Area;
-  vtkIdType NonSurface = 0, Degenerate = 0, NonFinite = 0, Faces = 0;
-};
-
-template <typename I, typename P>
-struct FaceLoop
-{
-  const Settings& S;
-  const Inputs& In;
-  const Outputs& Out;
-  const FaceTopology<I>& Topo;
-  vtkSMPThreadLocal<ThreadTally> Local;
-
-  FaceLoop(const Settings& s, const Inputs& in, const Outputs& out, const FaceTopology<I>& topo)
-    : S(s)
-    , In(in)
-    , Out(out)
-    , Topo(topo)
-  {
-  }
-
-  void Initialize() {}
-
-  void MarkSkipped(vtkIdType c) const
-  {
-    const double nan = std::numeric_limits<double>::quiet_NaN();
-    Out.Area[c] = nan;
-    for (double* a : { Out.ForceP, Out.ForceV })
+  auto NewCellDoubleArray = [&](vtkDataSet* ds, const char* name, int components) -> double* {
+    if (!cache.Pool)
     {
-      a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
+      return wallloads::NewCellDoubleArray(ds, name, components);
     }
-    if (!Out.Full)
-    {
-      return;
-    }
-    for (double* a : { Out.Normal, Out.TractionP, Out.TractionV, Out.Traction, Out.Force })
-    {
-      a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
-    }
-    Out.NormalV[c] = Out.Directional[c] = nan;
-    if (Out.Cp)
-    {
-      Out.Cp[c] = nan;
-    }
-    if (Out.Cf)
-    {
-      Out.Cf[c] = nan;
-    }
-  }
-
-  void operator()(vtkIdType begin, vtkIdType end)
-  {
-    ThreadTally& tally = this->Local.Local();
-    const P* points = static_cast<const P*>(In.Points.Data);
-    for (vtkIdType c = begin; c < end; ++c)
-    {
-      const bool counted = IsCountedCell(In.Ghosts, c);
-      I buffer[4];
-      const I* ids = nullptr;
-      const int n = Topo.Corners(c, ids, buffer);
-      if (n == 0)
-      {
-        Out.FaceOk[c] = 0;
-        this->MarkSkipped(c);
-        tally.NonSurface += counted;
-        continue;
-      }
-      FaceFrame<double> frame;
-      const FaceStatus status = ComputeFaceFrame<double>(points, ids, n, frame);
-      Out.FaceOk[c] = status == FaceStatus::Ok;
-      if (status != FaceStatus::Ok)
-      {
-        this->MarkSkipped(c);
-        (status == FaceStatus::NonFinite ? tally.NonFinite : tally.Degenerate) += counted;
-        continue;
-      }
-      double sign = S.Orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
-      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
-      {
-        const double d = frame.Normal[0] * In.WallNormal.Get(c, 0) +
-          frame.Normal[1] * In.WallNormal.Get(c, 1) + frame.Normal[2] * In.WallNormal.Get(c, 2);
-        sign = d > 0 ? 1.0 : (d < 0 ? -1.0 : std::numeric_limits<double>::quiet_NaN());
-      }
-      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0)
-      {
-        Out.FaceOk[c] = 2;
-      }
-      const double normal[3] = { sign * frame.Normal[0], sign * frame.Normal[1],
-        sign * frame.Normal[2] };
-
-      double rho = S.Density;
-      if (In.Density.Valid())
-      {
-        rho = In.Density.Face(c, ids, n, 0);
-      }
-      FaceTractionInput<double> tin;
-      tin.Normal = normal;
-      tin.IncludeNormalViscousStress = S.IncludeNormal;
-      if (In.Pressure.Valid())
-      {
-        const double p = In.Pressure.Face(c, ids, n, 0);
-        tin.GaugePressure = (S.PressurePerUnitDensity ? rho * p : p) - S.ReferencePressure;
-      }
-      else
-      {
-        tin.GaugePressure = 0;
-      }
-      double shear[3];
-      double gradient[9];
-      if (S.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS)
-      {
-        const double f = S.ShearPerUnitDensity ? rho : 1.0;
-        for (int k = 0; k < 3; ++k)
-        {
-          shear[k] = f * In.Shear.Face(c, ids, n, k);
-        }
-        tin.ShearVector = shear;
-      }
-      else if (S.ShearSource == vtkWallTraction::VELOCITY_GRADIENT)
-      {
-        for (int k = 0; k < 9; ++k)
-        {
-          gradient[k] = In.Gradient.Face(c, ids, n, k);
-        }
-        double mu = In.Viscosity.Valid() ? In.Viscosity.Face(c, ids, n, 0) : S.Viscosity;
-        if (In.TurbulentViscosity.Valid())
-        {
-          mu += In.TurbulentViscosity.Face(c, ids, n, 0);
-        }
-        tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
-        tin.VelocityGradient = gradient;
-      }
-      FaceTraction<double> t;
-      if (!ComputeFaceTraction(tin, t) || !std::isfinite(sign) || !std::isfinite(rho))
-      {
-        this->MarkSkipped(c);
-        tally.NonFinite += counted;
-        continue;
-      }
-      const double A = frame.Area;
-      Out.Area[c] = A;
-      for (int k = 0; k < 3; ++k)
-      {
-        Out.ForceP[3 * c + k] = t.Pressure[k] * A;
-        Out.ForceV[3 * c + k] = t.Viscous[k] * A;
-      }
-      if (Out.Full)
-      {
-        for (int k = 0; k < 3; ++k)
-        {
-          const vtkIdType j = 3 * c + k;
-          Out.Normal[j] = normal[k];
-          Out.TractionP[j] = t.Pressure[k];
-          Out.TractionV[j] = t.Viscous[k];
-          Out.Traction[j] = t.Total[k];
-          Out.Force[j] = t.Total[k] * A;
-        }
-        Out.NormalV[c] = t.NormalViscous;
-        Out.Directional[c] = Dot(t.Total, S.LoadDirection);
-      }
-      if (Out.Cp)
-      {
-        Out.Cp[c] = tin.GaugePressure / S.DynamicPressure;
-      }
-      if (Out.Cf)
-      {
-        Out.Cf[c] = t.ShearMagnitude / S.DynamicPressure;
-      }
-      if (counted)
-      {
-        tally.Area.Add(A);
-        ++tally.Faces;
-      }
-    }
-  }
-
-  void Reduce() {}
-};
-
-
-template <typename I, typename P>
-void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, Tally& tally)
-{
-  // One byte per face: faces whose geometry is valid take part in the
-  // orientation check even when their values are NaN (no false open edges).
-  std::vector<std::uint8_t> faceOk(static_cast<std::size_t>(ds->GetNumberOfCells()), 0);
-  out.FaceOk = faceOk.data();
-  FaceTopology<I> topo;
-  MakeFaceTopology<I>(ds, topo);
-  FaceLoop<I, P> loop(s, in, out, topo);
-  vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
-  // Merge thread tallies in a fixed order of their values: compensated sums
-  // make the total independent of how the faces were split among threads.
-  for (const ThreadTally& t : loop.Local)
-  {
-    tally.WettedArea.Merge(t.Area);
-    tally.NonSurface += t.NonSurface;
-    tally.Degenerate += t.Degenerate;
-    tally.NonFinite += t.NonFinite;
-    tally.Faces += t.Faces;
-  }
-  if (s.CheckOrientation)
-  {
-    const std::uint8_t* ok = faceOk.data();
-    const unsigned char* ghosts = in.Ghosts;
-    auto corners = [&](std::int64_t f, const I*& ids, I buffer[4], bool& reversed) -> int {
-      if (!ok[f] || !IsCountedCell(ghosts, f))
-      {
-        return 0;
-      }
-      reversed = ok[f] == 2;
-      return topo.Corners(f, ids, buffer);
-    };
-    const OrientationReport report =
-      CheckOrientation<I>(ds->GetNumberOfCells(), ds->GetNumberOfPoints(), corners);
-    tally.Inconsistent += static_cast<double>(report.InconsistentFaces);
-    tally.OpenEdges += static_cast<double>(report.BoundaryEdges);
-  }
-}
-
-
-/// The per-face output arrays of a leaf, added to it.
-Outputs MakeOutputs(const Settings& s, vtkDataSet* out)
-{
+    vtkSmartPointer<vtkDoubleArray> a =
+      cache.Pool->Get(cache.Slot, name, components, ds->GetNumberOfCells());
+    ds->GetCellData()->AddArray(a);
+    return a->GetPointer(0);
+  };
   Outputs o;
   o.Full = s.AllArrays;
   o.Area = NewCellDoubleArray(out, names::FaceArea, 1);
@@ -351,7 +91,7 @@ Outputs MakeOutputs(const Settings& s, vtkDataSet* out)
 
 /// Process one leaf; returns false with `error` set on bad input.
 bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::string& blockName,
-  Tally& tally, std::string& error)
+  Tally& tally, std::string& error, const LeafCache& cache)
 {
   if (!CheckGhostArrays(in, blockName, error))
   {
@@ -361,7 +101,7 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   {
     // An empty piece (common on some ranks) needs no arrays; it gets the
     // output arrays, empty, so that every piece has the same arrays.
-    MakeOutputs(s, out);
+    MakeOutputs(s, out, cache);
     return true;
   }
   Inputs inputs;
@@ -398,7 +138,7 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   inputs.Points = MakePointView(in);
   inputs.Ghosts = CellGhostMask(in);
 
-  const Outputs o = MakeOutputs(s, out);
+  const Outputs o = MakeOutputs(s, out, cache);
   if (!inputs.Points.Data)
   {
     // Cells without points: nothing is a face.
@@ -412,7 +152,8 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
     return false;
   }
   DispatchFaces(in, inputs.Points.IsFloat, [&](auto id, auto pt) {
-    RunFaces<decltype(id), decltype(pt)>(s, inputs, o, in, tally);
+    RunFaces<decltype(id), decltype(pt)>(s, inputs, o, in, tally, cache,
+      inputs.WallNormal.Valid() ? in->GetCellData()->GetArray(names::WallNormal) : nullptr);
   });
   return true;
 }
@@ -476,8 +217,43 @@ void Report(vtkWallTraction* self, const Settings& s, const double* global,
 }
 } // namespace
 
+/// Mesh results and output arrays kept between executions.
+struct vtkWallTraction::Internals
+{
+  wallloads::MeshResultCache Results;
+  wallloads::OutputArrayPool Pool;
+};
+
+//------------------------------------------------------------------------------
+vtkWallTraction::~vtkWallTraction()
+{
+  delete this->Cache;
+}
+
+vtkIdType vtkWallTraction::GetMeshCacheHits()
+{
+  return this->Cache->Results.Hits + this->Cache->Results.ContentHits;
+}
+vtkIdType vtkWallTraction::GetMeshCacheContentHits()
+{
+  return this->Cache->Results.ContentHits;
+}
+vtkIdType vtkWallTraction::GetMeshCacheBuilds()
+{
+  return this->Cache->Results.Builds;
+}
+vtkIdType vtkWallTraction::GetOutputArraysReused()
+{
+  return this->Cache->Pool.Reused;
+}
+vtkIdType vtkWallTraction::GetOutputArraysAllocated()
+{
+  return this->Cache->Pool.Allocated;
+}
+
 //------------------------------------------------------------------------------
 vtkWallTraction::vtkWallTraction()
+  : Cache(new Internals)
 {
   // Nothing selected until the caller (or the ParaView proxy) chooses arrays.
   for (int i = PRESSURE_ARRAY; i <= TURBULENT_VISCOSITY_ARRAY; ++i)
@@ -592,6 +368,8 @@ int vtkWallTraction::RequestData(
   bool aborted = false;
   double doneCells = 0, surfaceCells = 0, passedCells = 0;
   std::vector<std::string> passed;
+  std::size_t leafSlot = 0;
+  this->Cache->Pool.Begin();
   auto process = [&](vtkDataSet* in, vtkDataSet* out, const std::string& name) {
     const double cells = static_cast<double>(in->GetNumberOfCells());
     if (ClassifyLeaf(in) == LeafKind::NoFaces)
@@ -602,7 +380,8 @@ int vtkWallTraction::RequestData(
     else
     {
       surfaceCells += cells;
-      ok = ProcessLeaf(s, in, out, name, tally, error);
+      LeafCache cache{ &this->Cache->Results, &this->Cache->Pool, leafSlot++ };
+      ok = ProcessLeaf(s, in, out, name, tally, error, cache);
       AttachFaceUnits(out, in);
     }
     doneCells += cells;
@@ -647,6 +426,9 @@ int vtkWallTraction::RequestData(
     error = std::string("Unsupported input type ") + input->GetClassName() + ".";
     ok = false;
   }
+
+  this->Cache->Pool.End();
+  this->Cache->Results.Resize(leafSlot);
 
   double global[12] = { ok ? 0.0 : 1.0, tally.WettedArea.Sum, tally.WettedArea.Carry,
     tally.NonSurface, tally.Degenerate, tally.NonFinite, tally.Inconsistent, tally.OpenEdges,

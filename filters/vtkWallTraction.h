@@ -228,9 +228,29 @@ public:
   /// column; "-" for dimensionless), or nullptr for other names.
   static const char* GetArrayUnit(const char* name);
 
+  ///@{
+  /**
+   * What is kept between executions (a time-step loop re-executes on the
+   * same mesh), for tests and benchmarks. The orientation check's result is
+   * kept per leaf while the mesh is unchanged: the same point, connectivity,
+   * cell-type, ghost (and, for Orientation = Use Wall Normal array, Wall
+   * Normal) arrays with unchanged modification times, or new arrays with the
+   * same 64-bit content hash (readers that make new objects for every step).
+   * MeshCacheHits counts leaves that reused it (ContentHits: by content),
+   * MeshCacheBuilds leaves where the check ran. Output arrays are reused when
+   * their size matches and nothing but the filter holds them (reference
+   * count 1); OutputArraysReused / Allocated count arrays.
+   */
+  vtkIdType GetMeshCacheHits();
+  vtkIdType GetMeshCacheContentHits();
+  vtkIdType GetMeshCacheBuilds();
+  vtkIdType GetOutputArraysReused();
+  vtkIdType GetOutputArraysAllocated();
+  ///@}
+
 protected:
   vtkWallTraction();
-  ~vtkWallTraction() override = default;
+  ~vtkWallTraction() override;
 
   int FillInputPortInformation(int port, vtkInformation* info) override;
   int RequestData(vtkInformation*, vtkInformationVector**, vtkInformationVector*) override;
@@ -250,6 +270,8 @@ protected:
   int PerFaceArrays = ALL_ARRAYS;
 
 private:
+  struct Internals;
+  Internals* Cache;
   vtkWallTraction(const vtkWallTraction&) = delete;
   void operator=(const vtkWallTraction&) = delete;
 };

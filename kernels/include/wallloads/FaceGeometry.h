@@ -18,6 +18,14 @@
 
 #include <cstdint>
 
+/// Inlined into the face loops whatever the compiler's size heuristics say
+/// (a call per face costs more than the work in it).
+#if defined(__GNUC__) || defined(__clang__)
+#define WALLLOADS_FACE_INLINE inline __attribute__((always_inline))
+#else
+#define WALLLOADS_FACE_INLINE inline
+#endif
+
 namespace wallloads
 {
 
@@ -127,6 +135,149 @@ FaceStatus ComputeFaceFrame(const P* points, const I* ids, int numIds, FaceFrame
   frame.Centroid[1] = o[1] + cw[1] * invW;
   frame.Centroid[2] = o[2] + cw[2] * invW;
   return FaceStatus::Ok;
+}
+
+namespace detail
+{
+/// Pass 1 of ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time).
+template <int N, typename T, typename P, typename I>
+WALLLOADS_FACE_INLINE FaceStatus FaceNormalPass(
+  const P* points, const I* ids, int numIds, T normal[3], T& area, T relativeAreaTolerance)
+{
+  const int n = N > 0 ? N : numIds;
+  const P* p0 = points + 3 * ids[0];
+  const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
+  T a[3] = { 0, 0, 0 };
+  T prev[3];
+  Relative(points + 3 * ids[1], o, prev);
+  T size2 = Dot(prev, prev);
+  for (int k = 2; k < n; ++k)
+  {
+    T cur[3];
+    Relative(points + 3 * ids[k], o, cur);
+    T c[3];
+    Cross(prev, cur, c);
+    a[0] += c[0];
+    a[1] += c[1];
+    a[2] += c[2];
+    const T d2 = Dot(cur, cur);
+    size2 = d2 > size2 ? d2 : size2;
+    prev[0] = cur[0];
+    prev[1] = cur[1];
+    prev[2] = cur[2];
+  }
+  if (!AllFinite(a, 3) || !AllFinite(o, 3))
+  {
+    return FaceStatus::NonFinite;
+  }
+  const T twiceArea = Norm(a);
+  if (!(twiceArea > T(2) * relativeAreaTolerance * size2))
+  {
+    return FaceStatus::ZeroArea;
+  }
+  const T inv = T(1) / twiceArea;
+  normal[0] = a[0] * inv;
+  normal[1] = a[1] * inv;
+  normal[2] = a[2] * inv;
+  area = T(0.5) * twiceArea;
+  return FaceStatus::Ok;
+}
+} // namespace detail
+
+/**
+ * The unit normal and area of ComputeFaceFrame (the same operations, so the
+ * same values and status) without the centroid, for loops that need only
+ * those; triangles and quadrilaterals take unrolled paths.
+ */
+template <typename T, typename P, typename I>
+WALLLOADS_FACE_INLINE FaceStatus ComputeFaceNormal(const P* points, const I* ids, int numIds, T normal[3],
+  T& area, T relativeAreaTolerance = T(1e-14))
+{
+  switch (numIds)
+  {
+    case 3:
+      return detail::FaceNormalPass<3>(points, ids, 3, normal, area, relativeAreaTolerance);
+    case 4:
+      return detail::FaceNormalPass<4>(points, ids, 4, normal, area, relativeAreaTolerance);
+    default:
+      return numIds < 3
+        ? FaceStatus::TooFewPoints
+        : detail::FaceNormalPass<0>(points, ids, numIds, normal, area, relativeAreaTolerance);
+  }
+}
+
+namespace detail
+{
+/// ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time): the same operations.
+template <int N, typename T, typename P, typename I>
+WALLLOADS_FACE_INLINE FaceStatus FaceFramePass(
+  const P* points, const I* ids, int numIds, FaceFrame<T>& frame, T relativeAreaTolerance)
+{
+  const int n = N > 0 ? N : numIds;
+  T nhat[3];
+  T area;
+  const FaceStatus status =
+    FaceNormalPass<N>(points, ids, n, nhat, area, relativeAreaTolerance);
+  if (status != FaceStatus::Ok)
+  {
+    return status;
+  }
+  const P* p0 = points + 3 * ids[0];
+  const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
+  T cw[3] = { 0, 0, 0 };
+  T w = 0;
+  T prev[3];
+  Relative(points + 3 * ids[1], o, prev);
+  T a[3] = { 0, 0, 0 };
+  for (int k = 2; k < n; ++k)
+  {
+    T cur[3];
+    Relative(points + 3 * ids[k], o, cur);
+    T c[3];
+    Cross(prev, cur, c);
+    a[0] += c[0];
+    a[1] += c[1];
+    a[2] += c[2];
+    const T wt = Dot(c, nhat);
+    w += wt;
+    cw[0] += wt * (prev[0] + cur[0]);
+    cw[1] += wt * (prev[1] + cur[1]);
+    cw[2] += wt * (prev[2] + cur[2]);
+    prev[0] = cur[0];
+    prev[1] = cur[1];
+    prev[2] = cur[2];
+  }
+  frame.AreaVector[0] = T(0.5) * a[0];
+  frame.AreaVector[1] = T(0.5) * a[1];
+  frame.AreaVector[2] = T(0.5) * a[2];
+  frame.Area = area;
+  frame.Normal[0] = nhat[0];
+  frame.Normal[1] = nhat[1];
+  frame.Normal[2] = nhat[2];
+  const T invW = T(1) / (T(3) * w);
+  frame.Centroid[0] = o[0] + cw[0] * invW;
+  frame.Centroid[1] = o[1] + cw[1] * invW;
+  frame.Centroid[2] = o[2] + cw[2] * invW;
+  return FaceStatus::Ok;
+}
+} // namespace detail
+
+/// ComputeFaceFrame (the same values and status) with unrolled paths for
+/// triangles and quadrilaterals, for face loops.
+template <typename T, typename P, typename I>
+WALLLOADS_FACE_INLINE FaceStatus ComputeFaceFrameFast(const P* points, const I* ids, int numIds,
+  FaceFrame<T>& frame, T relativeAreaTolerance = T(1e-14))
+{
+  switch (numIds)
+  {
+    case 3:
+      return detail::FaceFramePass<3>(points, ids, 3, frame, relativeAreaTolerance);
+    case 4:
+      return detail::FaceFramePass<4>(points, ids, 4, frame, relativeAreaTolerance);
+    default:
+      return numIds < 3 ? FaceStatus::TooFewPoints
+                        : detail::FaceFramePass<0>(points, ids, numIds, frame, relativeAreaTolerance);
+  }
 }
 
 } // namespace wallloads

@@ -1,0 +1,263 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#include "WallLoadsMeshCache.h"
+
+#include "wallloads/ContentHash.h"
+
+#include "vtkCellArray.h"
+#include "vtkCellData.h"
+#include "vtkDataArray.h"
+#include "vtkDataSet.h"
+#include "vtkDoubleArray.h"
+#include "vtkPoints.h"
+#include "vtkPolyData.h"
+#include "vtkSMPTools.h"
+#include "vtkUnstructuredGrid.h"
+
+#include <algorithm>
+
+namespace wallloads
+{
+
+MeshIdentity MeshIdentity::Of(vtkDataSet* ds, vtkDataArray* extra)
+{
+  MeshIdentity id;
+  auto hold = [&id](vtkObject* o) {
+    id.Objects.emplace_back(o);
+    id.Times.push_back(o ? o->GetMTime() : 0);
+    id.Present.push_back(o != nullptr);
+  };
+  auto array = [&](vtkDataArray* a) {
+    hold(a);
+    id.Arrays.push_back(a);
+    id.Counts.push_back(a ? a->GetNumberOfValues() : -1);
+  };
+  // The dataset's own modification time (not the one that includes its
+  // arrays, which change every step): a caller that edits connectivity or
+  // points in place and calls ds->Modified() is seen.
+  id.Objects.emplace_back(ds);
+  id.Times.push_back(ds->vtkObject::GetMTime());
+  id.Present.push_back(true);
+  id.Counts.push_back(ds->GetNumberOfPoints());
+  id.Counts.push_back(ds->GetNumberOfCells());
+  vtkPoints* points = nullptr;
+  if (auto* pd = vtkPolyData::SafeDownCast(ds))
+  {
+    points = pd->GetPoints();
+    // Vertex, line and strip counts shift the ids of the polygons.
+    for (vtkCellArray* cells : { pd->GetVerts(), pd->GetLines(), pd->GetStrips() })
+    {
+      id.Counts.push_back(cells ? cells->GetNumberOfCells() : 0);
+    }
+    vtkCellArray* polys = pd->GetPolys();
+    hold(polys);
+    array(polys ? polys->GetOffsetsArray() : nullptr);
+    array(polys ? polys->GetConnectivityArray() : nullptr);
+  }
+  else if (auto* ug = vtkUnstructuredGrid::SafeDownCast(ds))
+  {
+    points = ug->GetPoints();
+    vtkCellArray* cells = ug->GetCells();
+    hold(cells);
+    array(cells ? cells->GetOffsetsArray() : nullptr);
+    array(cells ? cells->GetConnectivityArray() : nullptr);
+    array(ug->GetCellTypesArray());
+  }
+  hold(points);
+  array(points ? points->GetData() : nullptr);
+  array(ds->GetCellData()->GetGhostArray());
+  array(extra);
+  return id;
+}
+
+bool MeshIdentity::SameObjects(const MeshIdentity& other) const
+{
+  if (this->Objects.size() != other.Objects.size() || this->Counts != other.Counts)
+  {
+    return false;
+  }
+  for (std::size_t i = 0; i < this->Objects.size(); ++i)
+  {
+    // A weak pointer turns null when its object is freed: a new object at
+    // the same address is never taken for the old one.
+    vtkObject* a = this->Objects[i];
+    vtkObject* b = other.Objects[i];
+    if (a != b || this->Times[i] != other.Times[i] || this->Present[i] != other.Present[i] ||
+      (this->Present[i] && !a))
+    {
+      return false;
+    }
+  }
+  return true;
+}
+
+bool MeshIdentity::ComputeHash()
+{
+  // Fixed 1 MiB blocks, hashed in parallel and combined in order: the same
+  // value for any thread count.
+  constexpr std::size_t Block = std::size_t(1) << 20;
+  struct Span
+  {
+    const unsigned char* Data;
+    std::size_t Size;
+  };
+  std::vector<Span> spans;
+  std::uint64_t h = 0x57A11;
+  for (vtkDataArray* a : this->Arrays)
+  {
+    if (!a)
+    {
+      h = HashCombine(h, 0);
+      continue;
+    }
+    if (!a->HasStandardMemoryLayout())
+    {
+      this->HashKnown = false;
+      this->Arrays.clear();
+      return false;
+    }
+    const std::size_t bytes =
+      static_cast<std::size_t>(a->GetNumberOfValues()) * static_cast<std::size_t>(a->GetDataTypeSize());
+    h = HashCombine(h, static_cast<std::uint64_t>(a->GetDataType()));
+    spans.push_back(Span{ static_cast<const unsigned char*>(a->GetVoidPointer(0)), bytes });
+  }
+  std::vector<std::pair<std::size_t, std::size_t>> blocks; // (span, offset)
+  for (std::size_t s = 0; s < spans.size(); ++s)
+  {
+    for (std::size_t off = 0; off < spans[s].Size || off == 0; off += Block)
+    {
+      blocks.emplace_back(s, off);
+      if (spans[s].Size == 0)
+      {
+        break;
+      }
+    }
+  }
+  std::vector<std::uint64_t> hashes(blocks.size());
+  vtkSMPTools::For(0, static_cast<vtkIdType>(blocks.size()), [&](vtkIdType b0, vtkIdType b1) {
+    for (vtkIdType b = b0; b < b1; ++b)
+    {
+      const Span& s = spans[blocks[b].first];
+      const std::size_t off = blocks[b].second;
+      hashes[b] = HashBytes(s.Data + off, std::min(Block, s.Size - off), off);
+    }
+  });
+  for (std::uint64_t v : hashes)
+  {
+    h = HashCombine(h, v);
+  }
+  this->Hash = h;
+  this->HashKnown = true;
+  this->Arrays.clear(); // no raw pointer outlives the call
+  return true;
+}
+
+bool MeshResultCache::Find(
+  std::size_t slot, vtkDataSet* ds, vtkDataArray* extra, double values[NumValues])
+{
+  if (slot >= this->Entries.size() || !this->Entries[slot].Valid)
+  {
+    return false;
+  }
+  Entry& e = this->Entries[slot];
+  MeshIdentity now = MeshIdentity::Of(ds, extra);
+  bool found = false;
+  if (now.SameObjects(e.Id))
+  {
+    ++this->Hits;
+    found = true;
+  }
+  else if (now.ComputeHash() && now.SameContent(e.Id))
+  {
+    ++this->ContentHits;
+    e.Id = now; // the new objects: the next step takes the fast path
+    found = true;
+  }
+  if (found)
+  {
+    std::copy(e.Values, e.Values + NumValues, values);
+  }
+  return found;
+}
+
+void MeshResultCache::Store(
+  std::size_t slot, vtkDataSet* ds, vtkDataArray* extra, const double values[NumValues])
+{
+  if (slot >= this->Entries.size())
+  {
+    this->Entries.resize(slot + 1);
+  }
+  Entry& e = this->Entries[slot];
+  e.Id = MeshIdentity::Of(ds, extra);
+  e.Id.ComputeHash();
+  std::copy(values, values + NumValues, e.Values);
+  e.Valid = true;
+  ++this->Builds;
+}
+
+void MeshResultCache::Resize(std::size_t count)
+{
+  if (count < this->Entries.size())
+  {
+    this->Entries.resize(count);
+  }
+}
+
+vtkSmartPointer<vtkDoubleArray> OutputArrayPool::Get(
+  std::size_t slot, const char* name, int components, vtkIdType tuples)
+{
+  int mine = 0;
+  Entry* replace = nullptr;
+  for (Entry& e : this->Entries)
+  {
+    if (e.Slot == slot && e.Name == name)
+    {
+      e.Asked = this->Generation; // kept, even if held elsewhere now
+    }
+  }
+  for (Entry& e : this->Entries)
+  {
+    if (e.Slot != slot || e.Name != name)
+    {
+      continue;
+    }
+    ++mine;
+    // Only the pool holds it: nobody can see it change.
+    const bool free = e.Array->GetReferenceCount() == 1;
+    if (free && e.Taken != this->Generation && e.Array->GetNumberOfComponents() == components &&
+      e.Array->GetNumberOfTuples() == tuples)
+    {
+      e.Taken = this->Generation;
+      e.Array->Modified(); // cached ranges are stale
+      ++this->Reused;
+      return e.Array;
+    }
+    if (!replace || (free && replace->Array->GetReferenceCount() != 1))
+    {
+      replace = &e;
+    }
+  }
+  auto a = vtkSmartPointer<vtkDoubleArray>::New();
+  a->SetName(name);
+  a->SetNumberOfComponents(components);
+  a->SetNumberOfTuples(tuples);
+  ++this->Allocated;
+  if (mine < 2)
+  {
+    this->Entries.push_back(Entry{ slot, name, a, this->Generation, this->Generation });
+  }
+  else if (replace)
+  {
+    replace->Array = a;
+    replace->Taken = this->Generation;
+  }
+  return a;
+}
+
+void OutputArrayPool::End()
+{
+  this->Entries.erase(std::remove_if(this->Entries.begin(), this->Entries.end(),
+                        [this](const Entry& e) { return e.Asked != this->Generation; }),
+    this->Entries.end());
+}
+
+} // namespace wallloads

@@ -1,0 +1,132 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#pragma once
+/**
+ * What Wall Traction keeps from one execution to the next (a time-step loop
+ * re-executes it on the same mesh with new values):
+ *
+ * - MeshResultCache: per leaf, results that depend only on the mesh (the
+ *   orientation check's counts), keyed on what they depend on: the points,
+ *   the cell connectivity (offsets, connectivity, cell types, the polydata
+ *   vertex/line/strip counts that shift polygon ids), the cell ghost array,
+ *   and an optional extra array (the Wall Normal array when it decides the
+ *   orientation). "Unchanged" is decided in two steps:
+ *     1. the same objects (held weakly: a freed object never matches a new
+ *        one at the same address) with the same modification times, the
+ *        dataset's own time included (so an in-place edit followed by
+ *        ds->Modified() is seen; its arrays' new values are not part of it);
+ *     2. otherwise, for readers that hand over new objects with the same
+ *        content on every step, the same counts and the same 64-bit content
+ *        hash (ContentHash.h) of those arrays' bytes, computed threaded at
+ *        memory speed (about 10 ms for a 2M-quad surface, against the
+ *        hundreds of ms of the check it saves). Non-contiguous arrays
+ *        (implicit or structure-of-arrays) have no content hash: a new
+ *        object then always counts as a new mesh.
+ *   Cached state: a few dozen bytes per leaf (no per-face state).
+ *
+ * - OutputArrayPool: per leaf and array name, up to two double arrays reused
+ *   between executions when their size matches. An array is handed out again
+ *   only when the pool holds its only reference (GetReferenceCount() == 1):
+ *   no output, downstream filter or script still holds it, so rewriting it
+ *   cannot change data anyone else sees. In a pipeline whose downstream
+ *   output (Load Integration's port 0) still holds the last step's arrays
+ *   while Wall Traction runs, the pool alternates between two sets; the spare
+ *   set is memory of the size of the outputs, traded for the page faults of
+ *   fresh allocations. Arrays not asked for in an execution are released.
+ */
+#include "vtkSmartPointer.h"
+#include "vtkType.h"
+#include "vtkWeakPointer.h"
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+class vtkDataArray;
+class vtkDataSet;
+class vtkDoubleArray;
+class vtkObject;
+
+namespace wallloads
+{
+
+/// The identity and content of the mesh arrays of one leaf.
+class MeshIdentity
+{
+public:
+  /// `extra` (may be null) is an array the result also depends on.
+  static MeshIdentity Of(vtkDataSet* ds, vtkDataArray* extra);
+  /// Same objects, unmodified since.
+  bool SameObjects(const MeshIdentity& other) const;
+  /// Content hash of the arrays (threaded); false if one is not contiguous.
+  bool ComputeHash();
+  bool SameContent(const MeshIdentity& other) const
+  {
+    return this->HashKnown && other.HashKnown && this->Hash == other.Hash &&
+      this->Counts == other.Counts;
+  }
+
+private:
+  std::vector<vtkWeakPointer<vtkObject>> Objects;
+  std::vector<vtkMTimeType> Times;
+  std::vector<bool> Present;
+  std::vector<vtkDataArray*> Arrays; ///< to hash; cleared by ComputeHash
+  std::vector<vtkIdType> Counts;
+  std::uint64_t Hash = 0;
+  bool HashKnown = false;
+};
+
+/// Per-leaf results that depend only on the mesh (see the header comment).
+class MeshResultCache
+{
+public:
+  static constexpr int NumValues = 2;
+  /// True and `values` filled when leaf `slot` holds the same mesh as when stored.
+  bool Find(std::size_t slot, vtkDataSet* ds, vtkDataArray* extra, double values[NumValues]);
+  /// Remember `values` for leaf `slot` (hashes the mesh for later steps).
+  void Store(std::size_t slot, vtkDataSet* ds, vtkDataArray* extra, const double values[NumValues]);
+  /// Forget leaves from `count` on.
+  void Resize(std::size_t count);
+
+  vtkIdType Hits = 0;        ///< found by object identity and modification time
+  vtkIdType ContentHits = 0; ///< found by content hash (new objects, same mesh)
+  vtkIdType Builds = 0;      ///< stored (the result was computed)
+
+private:
+  struct Entry
+  {
+    bool Valid = false;
+    MeshIdentity Id;
+    double Values[NumValues] = { 0, 0 };
+  };
+  std::vector<Entry> Entries;
+};
+
+/// Output arrays reused between executions (see the header comment).
+class OutputArrayPool
+{
+public:
+  /// Mark the start of an execution.
+  void Begin() { ++this->Generation; }
+  /// A double array of `tuples` x `components` named `name` for leaf `slot`.
+  vtkSmartPointer<vtkDoubleArray> Get(
+    std::size_t slot, const char* name, int components, vtkIdType tuples);
+  /// Release the arrays not asked for since Begin().
+  void End();
+
+  vtkIdType Reused = 0;
+  vtkIdType Allocated = 0;
+
+private:
+  struct Entry
+  {
+    std::size_t Slot = 0;
+    std::string Name;
+    vtkSmartPointer<vtkDoubleArray> Array;
+    std::uint64_t Asked = 0; ///< generation in which its name was asked for
+    std::uint64_t Taken = 0; ///< generation in which it was handed out
+  };
+  std::vector<Entry> Entries;
+  std::uint64_t Generation = 0;
+};
+
+} // namespace wallloads

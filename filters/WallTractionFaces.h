@@ -1,0 +1,382 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#pragma once
+/**
+ * Wall Traction's face loop (private to vtkWallTraction.cxx): per face the
+ * Newell normal and area (unrolled for triangles and quadrilaterals, no
+ * centroid), the traction from the pressure and the viscous source, the
+ * per-face arrays, the tallies, and, when the orientation check must run,
+ * the edge-balance certificate (EdgeBalance.h) that spares the exact check
+ * on closed consistently oriented surfaces. The check's result is kept per
+ * leaf while the mesh is unchanged (WallLoadsMeshCache.h).
+ */
+#include "WallLoadsMeshCache.h"
+#include "WallLoadsPipeline.h"
+#include "vtkWallTraction.h"
+#include "wallloads/CompensatedSum.h"
+#include "wallloads/EdgeBalance.h"
+#include "wallloads/FaceGeometry.h"
+#include "wallloads/OrientationCheck.h"
+#include "wallloads/Traction.h"
+
+#include "vtkDataSet.h"
+#include "vtkSMPThreadLocal.h"
+#include "vtkSMPTools.h"
+
+#include <cmath>
+#include <cstdint>
+#include <limits>
+#include <vector>
+
+namespace wallloads
+{
+namespace traction
+{
+
+/// Everything one execution needs, read from the properties once.
+struct Settings
+{
+  ArraySelection Pressure, DensityArray, WallShearStress, VelocityGradient, ViscosityArray,
+    TurbulentViscosity;
+  bool PressurePerUnitDensity = false;
+  bool ShearPerUnitDensity = false;
+  bool Kinematic = false;
+  int ShearSource = 0;
+  int Orientation = 0;
+  bool IncludeNormal = false;
+  bool CheckOrientation = true;
+  bool AllArrays = true;
+  double ReferencePressure = 0;
+  double Density = 1;
+  double Viscosity = 0;
+  double LoadDirection[3] = { 1, 0, 0 };
+  double DynamicPressure = 0; ///< 0: no coefficients
+};
+
+/// Local (this rank) results of one execution.
+struct Tally
+{
+  CompensatedSum<double> WettedArea;
+  double NonSurface = 0, Degenerate = 0, NonFinite = 0, Inconsistent = 0, OpenEdges = 0;
+  double Faces = 0;
+};
+
+/// Output arrays of one leaf, as raw pointers for the face loop.
+struct Outputs
+{
+  /// Orientation check: 0 invalid geometry, 1 valid, 2 valid and flipped
+  /// against the stored order by the Wall Normal array.
+  std::uint8_t* FaceOk = nullptr;
+  double* Area = nullptr;   // always made
+  double* ForceP = nullptr; // always made
+  double* ForceV = nullptr; // always made
+  double *Normal = nullptr, *TractionP = nullptr, *TractionV = nullptr, *Traction = nullptr,
+         *Force = nullptr, *NormalV = nullptr, *Directional = nullptr; // with all arrays
+  double* Cp = nullptr;
+  double* Cf = nullptr;
+  bool Full = true; ///< false: only Face Area, Pressure Force and Viscous Force
+};
+
+/// Inputs of one leaf.
+struct Inputs
+{
+  ArrayView Pressure, Density, Shear, Gradient, Viscosity, TurbulentViscosity, WallNormal;
+  PointView Points;
+  const unsigned char* Ghosts = nullptr;
+};
+
+struct ThreadTally
+{
+  CompensatedSum<double> Area;
+  vtkIdType NonSurface = 0, Degenerate = 0, NonFinite = 0, Faces = 0;
+  EdgeBalance Balance; ///< orientation certificate, when the check runs
+};
+
+/// What the filter keeps between executions (WallLoadsMeshCache.h).
+struct LeafCache
+{
+  MeshResultCache* Results = nullptr;
+  OutputArrayPool* Pool = nullptr;
+  std::size_t Slot = 0; ///< leaf ordinal
+};
+
+/// `Direct`: every input array is a double cell array, read without the
+/// views' per-value type and association branches (the same values).
+template <typename I, typename P, bool Direct>
+struct FaceLoop
+{
+  const Settings& S;
+  const Inputs& In;
+  const Outputs& Out;
+  const FaceTopology<I>& Topo;
+  bool Balance = false; ///< accumulate the orientation certificate
+  vtkSMPThreadLocal<ThreadTally> Local;
+
+  FaceLoop(const Settings& s, const Inputs& in, const Outputs& out, const FaceTopology<I>& topo)
+    : S(s)
+    , In(in)
+    , Out(out)
+    , Topo(topo)
+  {
+  }
+
+  void Initialize() {}
+
+  double Val(const ArrayView& v, vtkIdType c, const I* ids, int n, int k) const
+  {
+    if (Direct)
+    {
+      return static_cast<const double*>(v.Data)[c * v.NumComponents + k];
+    }
+    return v.Face(c, ids, n, k);
+  }
+
+  void MarkSkipped(vtkIdType c) const
+  {
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    Out.Area[c] = nan;
+    for (double* a : { Out.ForceP, Out.ForceV })
+    {
+      a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
+    }
+    if (!Out.Full)
+    {
+      return;
+    }
+    for (double* a : { Out.Normal, Out.TractionP, Out.TractionV, Out.Traction, Out.Force })
+    {
+      a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
+    }
+    Out.NormalV[c] = Out.Directional[c] = nan;
+    if (Out.Cp)
+    {
+      Out.Cp[c] = nan;
+    }
+    if (Out.Cf)
+    {
+      Out.Cf[c] = nan;
+    }
+  }
+
+  void operator()(vtkIdType begin, vtkIdType end)
+  {
+    ThreadTally& tally = this->Local.Local();
+    const P* points = static_cast<const P*>(In.Points.Data);
+    for (vtkIdType c = begin; c < end; ++c)
+    {
+      const bool counted = IsCountedCell(In.Ghosts, c);
+      I buffer[4];
+      const I* ids = nullptr;
+      const int n = Topo.Corners(c, ids, buffer);
+      if (n == 0)
+      {
+        if (Out.FaceOk)
+        {
+          Out.FaceOk[c] = 0;
+        }
+        this->MarkSkipped(c);
+        tally.NonSurface += counted;
+        continue;
+      }
+      FaceFrame<double> frame; // normal and area only (no centroid here)
+      const FaceStatus status = ComputeFaceNormal<double>(points, ids, n, frame.Normal, frame.Area);
+      if (Out.FaceOk)
+      {
+        Out.FaceOk[c] = status == FaceStatus::Ok;
+      }
+      if (status != FaceStatus::Ok)
+      {
+        this->MarkSkipped(c);
+        (status == FaceStatus::NonFinite ? tally.NonFinite : tally.Degenerate) += counted;
+        continue;
+      }
+      double sign = S.Orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
+      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
+      {
+        const double d = frame.Normal[0] * In.WallNormal.Get(c, 0) +
+          frame.Normal[1] * In.WallNormal.Get(c, 1) + frame.Normal[2] * In.WallNormal.Get(c, 2);
+        sign = d > 0 ? 1.0 : (d < 0 ? -1.0 : std::numeric_limits<double>::quiet_NaN());
+      }
+      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0 && Out.FaceOk)
+      {
+        Out.FaceOk[c] = 2;
+      }
+      if (this->Balance && counted)
+      {
+        // The faces the orientation check takes: valid geometry, counted.
+        tally.Balance.AddFace(ids, n, S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0);
+      }
+      const double normal[3] = { sign * frame.Normal[0], sign * frame.Normal[1],
+        sign * frame.Normal[2] };
+
+      double rho = S.Density;
+      if (In.Density.Valid())
+      {
+        rho = this->Val(In.Density, c, ids, n, 0);
+      }
+      FaceTractionInput<double> tin;
+      tin.Normal = normal;
+      tin.IncludeNormalViscousStress = S.IncludeNormal;
+      if (In.Pressure.Valid())
+      {
+        const double p = this->Val(In.Pressure, c, ids, n, 0);
+        tin.GaugePressure = (S.PressurePerUnitDensity ? rho * p : p) - S.ReferencePressure;
+      }
+      else
+      {
+        tin.GaugePressure = 0;
+      }
+      double shear[3];
+      double gradient[9];
+      if (S.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS)
+      {
+        const double f = S.ShearPerUnitDensity ? rho : 1.0;
+        for (int k = 0; k < 3; ++k)
+        {
+          shear[k] = f * this->Val(In.Shear, c, ids, n, k);
+        }
+        tin.ShearVector = shear;
+      }
+      else if (S.ShearSource == vtkWallTraction::VELOCITY_GRADIENT)
+      {
+        for (int k = 0; k < 9; ++k)
+        {
+          gradient[k] = this->Val(In.Gradient, c, ids, n, k);
+        }
+        double mu = In.Viscosity.Valid() ? this->Val(In.Viscosity, c, ids, n, 0) : S.Viscosity;
+        if (In.TurbulentViscosity.Valid())
+        {
+          mu += this->Val(In.TurbulentViscosity, c, ids, n, 0);
+        }
+        tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
+        tin.VelocityGradient = gradient;
+      }
+      FaceTraction<double> t;
+      if (!ComputeFaceTraction(tin, t) || !std::isfinite(sign) || !std::isfinite(rho))
+      {
+        this->MarkSkipped(c);
+        tally.NonFinite += counted;
+        continue;
+      }
+      const double A = frame.Area;
+      Out.Area[c] = A;
+      for (int k = 0; k < 3; ++k)
+      {
+        Out.ForceP[3 * c + k] = t.Pressure[k] * A;
+        Out.ForceV[3 * c + k] = t.Viscous[k] * A;
+      }
+      if (Out.Full)
+      {
+        for (int k = 0; k < 3; ++k)
+        {
+          const vtkIdType j = 3 * c + k;
+          Out.Normal[j] = normal[k];
+          Out.TractionP[j] = t.Pressure[k];
+          Out.TractionV[j] = t.Viscous[k];
+          Out.Traction[j] = t.Total[k];
+          Out.Force[j] = t.Total[k] * A;
+        }
+        Out.NormalV[c] = t.NormalViscous;
+        Out.Directional[c] = Dot(t.Total, S.LoadDirection);
+      }
+      if (Out.Cp)
+      {
+        Out.Cp[c] = tin.GaugePressure / S.DynamicPressure;
+      }
+      if (Out.Cf)
+      {
+        Out.Cf[c] = t.ShearMagnitude / S.DynamicPressure;
+      }
+      if (counted)
+      {
+        tally.Area.Add(A);
+        ++tally.Faces;
+      }
+    }
+  }
+
+  void Reduce() {}
+};
+
+
+template <typename I, typename P>
+void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, Tally& tally,
+  const LeafCache& cache, vtkDataArray* wallNormal)
+{
+  // The orientation check depends on the mesh only (and on the Wall Normal
+  // array when it decides the orientation): reused while that is unchanged.
+  double orientation[MeshResultCache::NumValues] = { 0, 0 };
+  const bool check = s.CheckOrientation &&
+    !(cache.Results && cache.Results->Find(cache.Slot, ds, wallNormal, orientation));
+  // One byte per face, only when the check runs: faces whose geometry is
+  // valid take part in it even when their values are NaN (no false open edges).
+  std::vector<std::uint8_t> faceOk;
+  if (check)
+  {
+    faceOk.assign(static_cast<std::size_t>(ds->GetNumberOfCells()), 0);
+    out.FaceOk = faceOk.data();
+  }
+  FaceTopology<I> topo;
+  MakeFaceTopology<I>(ds, topo);
+  bool direct = true;
+  for (const ArrayView* v : { &in.Pressure, &in.Density, &in.Shear, &in.Gradient, &in.Viscosity,
+         &in.TurbulentViscosity })
+  {
+    direct = direct && (!v->Valid() || (!v->IsFloat && !v->OnPoints));
+  }
+  FaceLoop<I, P, true> fast(s, in, out, topo);
+  FaceLoop<I, P, false> general(s, in, out, topo);
+  fast.Balance = general.Balance = check;
+  if (direct)
+  {
+    vtkSMPTools::For(0, ds->GetNumberOfCells(), fast);
+  }
+  else
+  {
+    vtkSMPTools::For(0, ds->GetNumberOfCells(), general);
+  }
+  EdgeBalance balance;
+  // Merge thread tallies in a fixed order of their values: compensated sums
+  // make the total independent of how the faces were split among threads.
+  for (const ThreadTally& t : direct ? fast.Local : general.Local)
+  {
+    tally.WettedArea.Merge(t.Area);
+    tally.NonSurface += t.NonSurface;
+    tally.Degenerate += t.Degenerate;
+    tally.NonFinite += t.NonFinite;
+    tally.Faces += t.Faces;
+    balance.Merge(t.Balance);
+  }
+  if (check && balance.ClosedAndConsistent())
+  {
+    // Certified closed and consistently oriented in the face loop itself
+    // (EdgeBalance.h): the exact check would find 0 and 0.
+    orientation[0] = orientation[1] = 0;
+  }
+  else if (check)
+  {
+    const std::uint8_t* ok = faceOk.data();
+    const unsigned char* ghosts = in.Ghosts;
+    auto corners = [&](std::int64_t f, const I*& ids, I buffer[4], bool& reversed) -> int {
+      if (!ok[f] || !IsCountedCell(ghosts, f))
+      {
+        return 0;
+      }
+      reversed = ok[f] == 2;
+      return topo.Corners(f, ids, buffer);
+    };
+    const OrientationReport report =
+      CheckOrientation<I>(ds->GetNumberOfCells(), ds->GetNumberOfPoints(), corners);
+    orientation[0] = static_cast<double>(report.InconsistentFaces);
+    orientation[1] = static_cast<double>(report.BoundaryEdges);
+  }
+  if (check && cache.Results)
+  {
+    cache.Results->Store(cache.Slot, ds, wallNormal, orientation);
+  }
+  tally.Inconsistent += orientation[0];
+  tally.OpenEdges += orientation[1];
+}
+
+
+} // namespace traction
+} // namespace wallloads

@@ -1,0 +1,132 @@
+// SPDX-License-Identifier: BSD-3-Clause
+// The edge-balance certificate (closed and consistently oriented) and the
+// content hash, against cases whose answer follows from the definitions:
+// a closed surface oriented consistently walks every edge once each way.
+#include "wallloads/ContentHash.h"
+#include "wallloads/EdgeBalance.h"
+#include "wallloads/OrientationCheck.h"
+
+#include <gtest/gtest.h>
+
+#include <array>
+#include <cstdint>
+#include <vector>
+
+using namespace wallloads;
+
+namespace
+{
+using Face = std::vector<std::int64_t>;
+// Cube: 8 corners, 6 quads ordered outward.
+std::vector<Face> Cube()
+{
+  return { { 0, 3, 2, 1 }, { 4, 5, 6, 7 }, { 0, 1, 5, 4 }, { 2, 3, 7, 6 }, { 1, 2, 6, 5 },
+    { 0, 4, 7, 3 } };
+}
+
+EdgeBalance Balance(const std::vector<Face>& faces, std::size_t from = 0,
+  std::size_t to = std::size_t(-1), const std::vector<bool>& reversed = {})
+{
+  EdgeBalance b;
+  for (std::size_t f = from; f < faces.size() && f < to; ++f)
+  {
+    b.AddFace(faces[f].data(), static_cast<int>(faces[f].size()), !reversed.empty() && reversed[f]);
+  }
+  return b;
+}
+
+OrientationReport Exact(const std::vector<Face>& faces, std::int64_t numPoints)
+{
+  auto corners = [&](std::int64_t f, const std::int64_t*& ids, std::int64_t*, bool&) {
+    ids = faces[static_cast<std::size_t>(f)].data();
+    return static_cast<int>(faces[static_cast<std::size_t>(f)].size());
+  };
+  return CheckOrientation<std::int64_t>(static_cast<std::int64_t>(faces.size()), numPoints, corners);
+}
+}
+
+TEST(EdgeBalance, ClosedConsistentCubeIsCertified)
+{
+  const auto cube = Cube();
+  EXPECT_TRUE(Balance(cube).ClosedAndConsistent());
+  const OrientationReport r = Exact(cube, 8);
+  EXPECT_EQ(r.InconsistentFaces, 0);
+  EXPECT_EQ(r.BoundaryEdges, 0);
+  // Any split into parts merges to the same certificate (threads).
+  EdgeBalance a = Balance(cube, 0, 2), b = Balance(cube, 2, 5), c = Balance(cube, 5);
+  a.Merge(b);
+  a.Merge(c);
+  EXPECT_TRUE(a.ClosedAndConsistent());
+  // Triangulated: two triangles per quad, still closed and consistent.
+  std::vector<Face> tris;
+  for (const Face& q : cube)
+  {
+    tris.push_back({ q[0], q[1], q[2] });
+    tris.push_back({ q[0], q[2], q[3] });
+  }
+  EXPECT_TRUE(Balance(tris).ClosedAndConsistent());
+}
+
+TEST(EdgeBalance, OpenOrInconsistentIsNotCertified)
+{
+  auto cube = Cube();
+  std::vector<Face> open(cube.begin(), cube.end() - 1);
+  EXPECT_FALSE(Balance(open).ClosedAndConsistent());
+  EXPECT_EQ(Exact(open, 8).BoundaryEdges, 4);
+  auto flipped = cube;
+  flipped[2] = { 4, 5, 1, 0 };
+  EXPECT_FALSE(Balance(flipped).ClosedAndConsistent());
+  EXPECT_EQ(Exact(flipped, 8).InconsistentFaces, 1);
+  // Reversed by the caller (a normal array says so): the flip is undone.
+  std::vector<bool> rev(6, false);
+  rev[2] = true;
+  EXPECT_TRUE(Balance(flipped, 0, std::size_t(-1), rev).ClosedAndConsistent());
+  // All faces reversed: consistent again.
+  EXPECT_TRUE(Balance(cube, 0, std::size_t(-1), std::vector<bool>(6, true)).ClosedAndConsistent());
+  // A face given once more each way: its edges have four users (non-manifold,
+  // not joined by the exact check) but stay balanced, and the exact check
+  // also finds 0 inconsistent faces and 0 boundary edges: the counts agree.
+  auto twice = cube;
+  twice.push_back(cube[0]);
+  twice.push_back({ 1, 2, 3, 0 });
+  EXPECT_TRUE(Balance(twice).ClosedAndConsistent());
+  EXPECT_EQ(Exact(twice, 8).InconsistentFaces, 0);
+  EXPECT_EQ(Exact(twice, 8).BoundaryEdges, 0);
+  EXPECT_EQ(Exact(twice, 8).NonManifoldEdges, 4);
+  // Given once more the same way: unbalanced.
+  twice.pop_back();
+  EXPECT_FALSE(Balance(twice).ClosedAndConsistent());
+}
+
+TEST(EdgeBalance, RepeatedCornersAreLeftToTheExactCheck)
+{
+  auto cube = Cube();
+  cube.push_back({ 0, 1, 0 }); // walks 0-1 both ways by itself
+  EXPECT_TRUE(Balance(cube).Irregular);
+  EXPECT_FALSE(Balance(cube).ClosedAndConsistent());
+}
+
+TEST(ContentHash, SameBytesSameHashAndOneBitChangesIt)
+{
+  std::vector<double> a(1000);
+  for (std::size_t i = 0; i < a.size(); ++i)
+  {
+    a[i] = 0.001 * static_cast<double>(i);
+  }
+  std::vector<double> b = a;
+  const std::size_t bytes = a.size() * sizeof(double);
+  EXPECT_EQ(HashBytes(a.data(), bytes), HashBytes(b.data(), bytes));
+  reinterpret_cast<unsigned char*>(b.data())[4000] ^= 1;
+  EXPECT_NE(HashBytes(a.data(), bytes), HashBytes(b.data(), bytes));
+  // Length, seed and order of combination matter.
+  EXPECT_NE(HashBytes(a.data(), bytes), HashBytes(a.data(), bytes - 8));
+  EXPECT_NE(HashBytes(a.data(), bytes, 1), HashBytes(a.data(), bytes, 2));
+  EXPECT_NE(HashCombine(HashCombine(0, 1), 2), HashCombine(HashCombine(0, 2), 1));
+  // Every tail length (not a multiple of 32 or 8) is hashed whole.
+  for (std::size_t n = 1; n < 40; ++n)
+  {
+    std::vector<unsigned char> x(n, 7), y(n, 7);
+    y[n - 1] = 8;
+    EXPECT_NE(HashBytes(x.data(), n), HashBytes(y.data(), n)) << n;
+  }
+}

@@ -39,6 +39,16 @@ Output (default folder examples/demo, or the first command-line argument)
   It feeds Shear Projection (the volume path of bead_loads.py and
   tests/python/test_shear_demo_volume.py).
 
+* ``series/bead_series.pvd`` + ``series/bead_series_*.vtp`` (inline
+  binary): a short time series of our own for Load History, 40 uneven steps
+  over 2 s on a coarser 12 x 24 bead (one block, the same arrays as the
+  bead's but the velocity gradient): the oil stream starts up,
+  U(t) = U (1 - 0.5 exp(-t / 0.15 s)), and the spin oscillates,
+  Omega(t) = Omega (1 + 0.3 sin(2 pi 2 Hz t)). Each step is the exact Stokes
+  field of that instant (quasi-steady: the viscous time rho R^2 / mu =
+  1.05 ms is far below 0.15 s and 0.5 s; the unsteady Basset and added-mass
+  forces are left out). ``analytic.json`` ("series") holds the signals.
+
 Usage: ``pvpython examples/generate_demo.py [outdir]``
 
 The meshes, the analytic Stokes fields and the VTK writers come from the
@@ -422,6 +432,7 @@ def main(outdir):
             "torque_z": -8.0 * np.pi * MU * RADIUS**3 * OMEGA_RATE,
         },
         "regions": regions,
+        "series": write_series(outdir),
     }
     with open(os.path.join(outdir, "analytic.json"), "w") as fh:
         json.dump(doc, fh, indent=2)
@@ -441,6 +452,69 @@ def main(outdir):
     print("wrote %s: %d cells, %d radial layers between r = %g and %g m, %.2f MB"
           % (vtu, grid.GetNumberOfCells(), VOLUME_N_RADIAL, RADIUS, VOLUME_OUTER_RADIUS,
              os.path.getsize(vtu) / 1e6))
+
+
+# --- Time series (Load History) ------------------------------------------------
+
+SERIES_STEPS = 40
+SERIES_DURATION = 2.0                # s
+SERIES_N_POLAR, SERIES_N_AZIMUTH = 12, 24
+SERIES_STARTUP = (0.5, 0.15)         # U(t) = U (1 - a exp(-t / tau)): a, tau in s
+SERIES_SPIN = (0.3, 2.0)             # Omega(t) = Omega (1 + b sin(2 pi f t)): b, f in Hz
+
+
+def series_times():
+    """SERIES_STEPS uneven times from 0 to SERIES_DURATION (steps uniform in [0.5, 1.5] dt)."""
+    steps = np.random.default_rng(2026).uniform(0.5, 1.5, SERIES_STEPS - 1)
+    return np.concatenate([[0.0], np.cumsum(steps) * SERIES_DURATION / steps.sum()])
+
+
+def series_state(t):
+    """Stream speed (m/s) and spin rate (rad/s) at time t."""
+    a, tau = SERIES_STARTUP
+    b, f = SERIES_SPIN
+    return U_SPEED * (1 - a * np.exp(-t / tau)), OMEGA_RATE * (1 + b * np.sin(2 * np.pi * f * t))
+
+
+def write_series(outdir):
+    """The time series files; returns the "series" entry of analytic.json."""
+    folder = os.path.join(outdir, "series")
+    os.makedirs(folder, exist_ok=True)
+    for stale in glob.glob(os.path.join(folder, "bead_series_*.vtp")):
+        os.remove(stale)
+    P, F, _ = ws.uv_sphere(RADIUS, SERIES_N_POLAR, SERIES_N_AZIMUTH, center=CENTER, ordering=ORDERING)
+    centroids = ws.face_centroids(P, F)
+    entries = []
+    from vtkmodules.vtkIOXML import vtkXMLPolyDataWriter
+    for i, t in enumerate(series_times()):
+        speed, spin = series_state(t)
+        u_vec, omega_vec = np.array([0.0, 0.0, speed]), np.array([0.0, 0.0, spin])
+        wss = (ws.stokes_sphere(centroids, RADIUS, u_vec, MU, CENTER)["wss"]
+               + ws.rotating_sphere(centroids, RADIUS, omega_vec, MU, CENTER)["wss"])
+        p = P_INF + ws.stokes_sphere(P, RADIUS, u_vec, MU, CENTER)["p"] + RHO * (P @ G_VEC)
+        pd = ws.polydata(P, F, cell_arrays={"wall_shear": wss}, point_arrays={"static_pressure": p})
+        name = "bead_series_%02d.vtp" % i
+        writer = vtkXMLPolyDataWriter()
+        writer.SetDataModeToBinary()  # inline: appended files read back empty on this platform
+        writer.SetFileName(os.path.join(folder, name))
+        writer.SetInputData(pd)
+        assert writer.Write() == 1
+        entries.append('    <DataSet timestep="%.17g" part="0" file="%s"/>' % (t, name))
+    with open(os.path.join(folder, "bead_series.pvd"), "w") as fh:
+        fh.write('<?xml version="1.0"?>\n<VTKFile type="Collection" version="0.1">\n  <Collection>\n')
+        fh.write("\n".join(entries) + "\n  </Collection>\n</VTKFile>\n")
+    a, tau = SERIES_STARTUP
+    b, f = SERIES_SPIN
+    return {
+        "description": "quasi-steady Stokes series: U(t) = U (1 - a exp(-t/tau)), "
+                       "Omega(t) = Omega (1 + b sin(2 pi f t)); exact values for the whole sphere",
+        "steps": SERIES_STEPS, "duration": SERIES_DURATION,
+        "mesh": {"n_polar": SERIES_N_POLAR, "n_azimuth": SERIES_N_AZIMUTH},
+        "startup_fraction": a, "startup_time": tau, "spin_modulation": b, "spin_frequency": f,
+        "drag_steady": 6.0 * np.pi * MU * RADIUS * U_SPEED + RHO * G_ACC * 4.0 / 3.0 * np.pi * RADIUS**3,
+        "rolling_moment_mean": -8.0 * np.pi * MU * RADIUS**3 * OMEGA_RATE,
+        "rolling_moment_amplitude": 8.0 * np.pi * MU * RADIUS**3 * OMEGA_RATE * b,
+    }
 
 
 if __name__ == "__main__":

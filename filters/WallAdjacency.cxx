@@ -1,5 +1,6 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #include "WallAdjacency.h"
+#include "WallLoadsMeshCache.h"
 
 #include "WallLoadsPipeline.h"
 #include "wallloads/FaceGeometry.h"
@@ -635,13 +636,8 @@ MeshKey MeshKey::Of(vtkDataSet* ds)
   return k;
 }
 
-bool MeshKey::SameAs(const MeshKey& other) const
+bool MeshKey::SameObjects(const MeshKey& other) const
 {
-  if (!this->Known || !other.Known || this->Kind != other.Kind ||
-    this->Objects.size() != other.Objects.size() || this->Numbers != other.Numbers)
-  {
-    return false;
-  }
   for (std::size_t i = 0; i < this->Objects.size(); ++i)
   {
     if (this->Objects[i] != other.Objects[i] || this->Times[i] != other.Times[i])
@@ -650,6 +646,56 @@ bool MeshKey::SameAs(const MeshKey& other) const
     }
   }
   return true;
+}
+
+void MeshKey::StoreContentHash() const
+{
+  if (this->HashState != 0)
+  {
+    return;
+  }
+  std::vector<vtkDataArray*> arrays;
+  for (const auto& o : this->Objects)
+  {
+    // The arrays (points and cell arrays are represented by theirs); null
+    // entries keep their place: "no ghost array" differs from an empty one.
+    if (!o)
+    {
+      arrays.push_back(nullptr);
+    }
+    else if (auto* a = vtkDataArray::SafeDownCast(o))
+    {
+      arrays.push_back(a);
+    }
+  }
+  this->HashState = HashArrayContents(arrays, this->Hash) ? 1 : -1;
+}
+
+bool MeshKey::SameAs(const MeshKey& other) const
+{
+  if (!this->Known || !other.Known || this->Kind != other.Kind ||
+    this->Objects.size() != other.Objects.size() || this->Numbers != other.Numbers)
+  {
+    return false;
+  }
+  if (this->SameObjects(other))
+  {
+    return true;
+  }
+  // Which slots are null must agree (no ghost array vs a ghost array).
+  for (std::size_t i = 0; i < this->Objects.size(); ++i)
+  {
+    if (!this->Objects[i] != !other.Objects[i])
+    {
+      return false;
+    }
+  }
+  if (other.HashState != 1)
+  {
+    return false;
+  }
+  this->StoreContentHash();
+  return this->HashState == 1 && this->Hash == other.Hash;
 }
 
 //------------------------------------------------------------------------------
@@ -775,6 +821,7 @@ void WallAdjacency::Block::Build(vtkDataSet* ds)
   static std::atomic<std::uint64_t> builds{ 0 };
   this->BuildId = ++builds;
   this->Key = MeshKey::Of(ds);
+  this->Key.StoreContentHash();
   if (ds->GetNumberOfCells() < static_cast<vtkIdType>(std::numeric_limits<std::uint32_t>::max()))
   {
     BuildBlock<std::uint32_t>(ds, *this);
@@ -800,6 +847,10 @@ int WallAdjacency::Update(const std::vector<vtkDataSet*>& volumes)
       if (!used[i] && key.SameAs(this->Blocks[i].Key))
       {
         kept.push_back(std::move(this->Blocks[i]));
+        // Hold this step's objects (not the last step's: they may be large
+        // and are otherwise freed), with the hash of their content.
+        key.StoreContentHash();
+        kept.back().Key = key;
         used[i] = true;
         found = true;
       }

@@ -31,7 +31,12 @@
  * cannot be reused by another array); for image data the extent, origin,
  * spacing and direction; for rectilinear grids the extent and the three
  * coordinate arrays; for structured grids the extent and the points. Other
- * dataset kinds are rebuilt on every execution.
+ * dataset kinds are rebuilt on every execution. Readers of file series hand
+ * over new arrays with the same content on every time step: when the objects
+ * differ, the key falls back to a 64-bit content hash of the same arrays
+ * (HashArrayContents, at memory speed: milliseconds for meshes whose
+ * adjacency takes seconds to build), so a transient series on a fixed mesh
+ * builds its adjacency once.
  */
 #include "vtkObject.h"
 #include "vtkSmartPointer.h"
@@ -53,15 +58,27 @@ class MeshKey
 {
 public:
   static MeshKey Of(vtkDataSet* ds);
+  /// The same objects unmodified since, or else (for readers that hand over
+  /// new objects with the same content every time step) the same numbers and
+  /// the same content hash of the arrays; `other` is a stored key whose hash
+  /// was taken by StoreContentHash when it was stored.
   bool SameAs(const MeshKey& other) const;
   bool Cacheable() const { return this->Known; }
+  /// Hash the arrays now (a stored key must, since they may be edited in place later).
+  void StoreContentHash() const;
 
 private:
+  bool SameObjects(const MeshKey& other) const;
+
   bool Known = false;
   std::string Kind;
   std::vector<vtkSmartPointer<vtkObject>> Objects;
   std::vector<vtkMTimeType> Times;
   std::vector<double> Numbers;
+  // Content hash of the arrays among Objects: 0 not yet taken, 1 taken, -1 none
+  // (an array without contiguous memory). Taken lazily for a key being looked up.
+  mutable int HashState = 0;
+  mutable std::uint64_t Hash = 0;
 };
 
 /// Uniform grid of points (face centroids) for radius queries; thread-safe to query.

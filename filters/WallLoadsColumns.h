@@ -124,6 +124,26 @@ enum ColumnFlags : unsigned
   X("Near-Wall Regime", "-", 1, "0 viscous sublayer (y+ < 5), 1 buffer layer, 2 log layer (y+ > 30), -1 not computed")
 
 /**
+ * Load History's statistics table (port 1), one row per history column:
+ * X(name, unit, components, meaning). "as quantity" columns carry the unit
+ * of the quantity of their row. Its history table (port 0) is `Time` (s)
+ * then one column per quantity with that quantity's unit.
+ */
+#define WALLLOADS_STATISTICS_COLUMNS(X)                                                            \
+  X("Quantity", "", 1, "the history column: <Region>: <Column> (with X/Y/Z for vectors), or a field-data array") \
+  X("Samples", "-", 1, "finite samples in the statistics window") \
+  X("Statistics Start", "s", 1, "time of the window's first sample: Statistics Start, or the MSER-5 truncation point (White 1997)") \
+  X("Mean", "as quantity", 1, "mean of the samples in the window") \
+  X("Standard Deviation", "as quantity", 1, "sample standard deviation (divisor n - 1)") \
+  X("Minimum", "as quantity", 1, "smallest sample in the window") \
+  X("Maximum", "as quantity", 1, "largest sample in the window") \
+  X("Standard Error Of Mean", "as quantity", 1, "sigma sqrt(tau / n), tau the autocorrelation time in samples (Sokal 1997)") \
+  X("Integrated Autocorrelation Time", "s", 1, "1 + 2 sum rho(k) over Sokal's automatic window (c = 5), times the mean sampling interval") \
+  X("Dominant Frequency", "Hz", 1, "peak of the Lomb-Scargle periodogram (Lomb 1976; Scargle 1982), refined off the 1/T grid") \
+  X("Amplitude", "as quantity", 1, "semi-amplitude of the least-squares sinusoid at the dominant frequency") \
+  X("Strouhal Number", "-", 1, "Dominant Frequency times Reference Length over Reference Speed (NaN when either is 0)")
+
+/**
  * Load Distribution's table, one row per bin along the axis:
  * X(name, unit, components, meaning). Forces per length are the bin's force
  * over its width; the faces are split among the bins exactly by area.
@@ -199,6 +219,7 @@ inline const NamedUnit ReferenceColumns[] = { WALLLOADS_REFERENCE_COLUMNS(WALLLO
 inline const NamedUnit FaceArrays[] = { WALLLOADS_FACE_ARRAYS(WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit TractionFields[] = { WALLLOADS_TRACTION_FIELDS(WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit ShearArrays[] = { WALLLOADS_SHEAR_ARRAYS(WALLLOADS_MAKE_NAMED_UNIT) };
+inline const NamedUnit StatisticsColumns[] = { WALLLOADS_STATISTICS_COLUMNS(WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit DistributionColumns[] = { WALLLOADS_DISTRIBUTION_COLUMNS(
   WALLLOADS_MAKE_NAMED_UNIT) };
 inline const NamedUnit DistributionFields[] = { WALLLOADS_DISTRIBUTION_FIELDS(

@@ -90,7 +90,7 @@ bool MeshIdentity::SameObjects(const MeshIdentity& other) const
   return true;
 }
 
-bool MeshIdentity::ComputeHash()
+bool HashArrayContents(const std::vector<vtkDataArray*>& arrays, std::uint64_t& hash)
 {
   // Fixed 1 MiB blocks, hashed in parallel and combined in order: the same
   // value for any thread count.
@@ -102,7 +102,7 @@ bool MeshIdentity::ComputeHash()
   };
   std::vector<Span> spans;
   std::uint64_t h = 0x57A11;
-  for (vtkDataArray* a : this->Arrays)
+  for (vtkDataArray* a : arrays)
   {
     if (!a)
     {
@@ -111,8 +111,6 @@ bool MeshIdentity::ComputeHash()
     }
     if (!a->HasStandardMemoryLayout())
     {
-      this->HashKnown = false;
-      this->Arrays.clear();
       return false;
     }
     const std::size_t bytes =
@@ -145,10 +143,15 @@ bool MeshIdentity::ComputeHash()
   {
     h = HashCombine(h, v);
   }
-  this->Hash = h;
-  this->HashKnown = true;
-  this->Arrays.clear(); // no raw pointer outlives the call
+  hash = h;
   return true;
+}
+
+bool MeshIdentity::ComputeHash()
+{
+  this->HashKnown = HashArrayContents(this->Arrays, this->Hash);
+  this->Arrays.clear(); // no raw pointer outlives the call
+  return this->HashKnown;
 }
 
 bool MeshResultCache::Find(

@@ -49,6 +49,12 @@ class vtkObject;
 namespace wallloads
 {
 
+/// A 64-bit hash of the bytes of `arrays` (null entries count as empty), in
+/// fixed blocks hashed threaded and combined in order (the same value for any
+/// thread count). False when one array has no contiguous memory (implicit or
+/// structure-of-arrays): such content has no hash.
+bool HashArrayContents(const std::vector<vtkDataArray*>& arrays, std::uint64_t& hash);
+
 /// The identity and content of the mesh arrays of one leaf.
 class MeshIdentity
 {

@@ -595,6 +595,12 @@ void PrepareWallFaces(const ShearSettings& settings, const std::vector<VolumeBlo
   const bool wantWeights = settings.Method == vtkShearProjection::WALL_FIT;
   const bool same = key.SameAs(cache.Key) && builds == cache.Builds &&
     boundaryOf == cache.BoundaryOf && static_cast<vtkIdType>(cache.Block.size()) == nf;
+  if (same)
+  {
+    // Hold this step's wall objects (see WallAdjacency::Update).
+    key.StoreContentHash();
+    cache.Key = key;
+  }
   if (same && (cache.HasWeights || !wantWeights))
   {
     return;
@@ -604,6 +610,7 @@ void PrepareWallFaces(const ShearSettings& settings, const std::vector<VolumeBlo
   {
     cache = WallFaceCache();
     cache.Key = key;
+    cache.Key.StoreContentHash();
     cache.Builds = builds;
     cache.BoundaryOf = boundaryOf;
     cache.Block.assign(nf, WallFaceCache::Unmatched);

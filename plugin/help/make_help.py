@@ -212,6 +212,19 @@ def outputs_section(proxy_name, cols):
                      "volume) they carry the volume's point data and the adjacent cells' cell data. "
                      "Faces that are not computed carry NaN and Near-Wall Regime -1, and a warning "
                      "counts them by reason.</p>")
+    elif proxy_name == "LoadHistory":
+        parts.append("<h3>History (port 0: opens in a line chart view)</h3>")
+        parts.append("<p><code>Time</code> (s), then one column per quantity with that quantity's unit: "
+                     "<code>&lt;Region&gt;: &lt;Column&gt;</code> for Load Integration's Load Table "
+                     "(for example <code>Total: Drag</code>, <code>Total: Force X</code>), or "
+                     "<code>&lt;Array&gt;</code> for field data; 3-component values are split into "
+                     "X, Y and Z. Identifiers, reference values and face counters are left out.</p>")
+        parts.append("<h3>Statistics (port 1: opens in a spreadsheet view), one row per history column</h3>")
+        parts.append(table(["Column", "Unit", "How it is computed"],
+                           [[esc(n), unit_text(u), esc(m)] for n, u, c, m in cols["WALLLOADS_STATISTICS_COLUMNS"]]))
+        parts.append("<p>Every statistic, the spectral ones included, is computed over the statistics "
+                     "window. NaN where undefined (fewer than 8 samples, constant quantity), with a "
+                     "warning.</p>")
     elif proxy_name == "LoadDistribution":
         parts.append("<h3>Output table (one row per bin; opens in a line chart view)</h3>")
         parts.append(table(["Column", "Unit", "Components", "How it is computed"],
@@ -273,7 +286,8 @@ def main(argv):
     cols = parse_columns(header)
     for key in ("WALLLOADS_LOAD_COLUMNS", "WALLLOADS_REGION_COLUMNS", "WALLLOADS_REFERENCE_COLUMNS",
                 "WALLLOADS_FACE_ARRAYS", "WALLLOADS_TRACTION_FIELDS", "WALLLOADS_SHEAR_ARRAYS",
-                "WALLLOADS_DISTRIBUTION_COLUMNS", "WALLLOADS_DISTRIBUTION_FIELDS"):
+                "WALLLOADS_STATISTICS_COLUMNS", "WALLLOADS_DISTRIBUTION_COLUMNS",
+                "WALLLOADS_DISTRIBUTION_FIELDS"):
         if not cols.get(key):
             raise SystemExit("make_help.py: %s not found in %s" % (key, header))
     os.makedirs(outdir, exist_ok=True)

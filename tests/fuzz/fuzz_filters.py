@@ -11,8 +11,10 @@ wrong kind, width or length, string arrays, odd ghost arrays, empty and nested
 blocks, image blocks) and random settings, through Wall Traction -> Load
 Integration (and Load Distribution), or Shear Projection (-> Wall Traction
 -> Load Integration), or Load Integration on input that did not come from
-Wall Traction. After every
-filter it checks:
+Wall Traction, or Load History over a random number of time steps of random
+tables or field data (NaN, Inf, huge and constant values, columns that come
+and go, no region column, random range, stride and statistics start). After
+every filter it checks:
 
 - no crash and no hang (a watchdog ends the run with the stack after 60 s);
 - the input is unchanged (a digest of every point, cell and array);
@@ -50,7 +52,7 @@ from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkDataObjectTre
                                            vtkDataSet, vtkPointSet, vtkPolyData,
                                            vtkRectilinearGrid, vtkUnstructuredGrid)
 from vtkmodules.vtkCommonExecutionModel import vtkTrivialProducer  # noqa: E402
-from wallloads.WallLoadsFilters import (vtkLoadDistribution, vtkLoadIntegration,  # noqa: E402
+from wallloads.WallLoadsFilters import (vtkLoadDistribution, vtkLoadHistory, vtkLoadIntegration,  # noqa: E402
                                         vtkShearProjection, vtkWallTraction)
 
 RTOL_BACKENDS = 1e-12
@@ -579,18 +581,149 @@ def run_volume_chain(rng, clean, stats):
             check(msgs.warnings, "Shear Projection: NaN wall shear stress without a warning")
 
 
-CHAINS = {"surface": run_surface_chain, "raw-integration": run_raw_integration, "volume": run_volume_chain}
+def random_step(seed, value_seed, as_table):
+    """One step's input for Load History: a table (rows of regions) or a
+    polydata with field data, numeric columns of 1, 2 or 3 components holding
+    ordinary, constant, NaN, Inf or huge values. The layout comes from
+    `seed`, the values from `value_seed`."""
+    from vtkmodules.util.numpy_support import numpy_to_vtk
+    from vtkmodules.vtkCommonDataModel import vtkTable
+    rng = np.random.default_rng(seed)
+    rng_v = np.random.default_rng(value_seed)
+    out = vtkTable() if as_table else vtkPolyData()
+    rows = int(rng.integers(0, 4)) if as_table else 1
+    if as_table and rng.random() < 0.7:
+        names = vtkStringArray()
+        names.SetName("Region" if rng.random() < 0.8 else "Boundary")
+        for r in range(rows):
+            names.InsertNextValue(["Total", "Wing", "Wing", ""][int(rng.integers(0, 4))])
+        out.AddColumn(names)
+    for k in range(int(rng.integers(0, 5))):
+        comps = int(rng.choice([1, 1, 3, 2]))
+        kind = rng.random()
+        values = rng_v.normal(0.0, 1.0, (rows if as_table else int(rng.integers(1, 3)), comps))
+        if kind < 0.1:
+            values[:] = np.nan
+        elif kind < 0.2:
+            values[:] = np.inf
+        elif kind < 0.3:
+            values *= 1e300
+        elif kind < 0.4:
+            values[:] = 2.5
+        a = numpy_to_vtk(values, deep=1)
+        a.SetName(["Drag", "Force", "Area", "Region Id", "Lift Coefficient"][k])
+        (out.AddColumn if as_table else out.GetFieldData().AddArray)(a)
+    if as_table and out.GetNumberOfColumns() > 1 and rng.random() < 0.1:
+        out.GetColumn(out.GetNumberOfColumns() - 1).SetNumberOfTuples(max(0, rows - 1))  # malformed
+    return out
+
+
+def run_history(rng, clean, stats):
+    from vtkmodules.util.vtkAlgorithm import VTKPythonAlgorithmBase
+    from vtkmodules.vtkCommonExecutionModel import vtkStreamingDemandDrivenPipeline as SDDP
+    as_table = rng.random() < 0.7
+    n = int(rng.integers(1, 30))
+    times = None if rng.random() < 0.1 else np.sort(rng.uniform(-1.0, 5.0, n))
+    if times is not None and rng.random() < 0.3:
+        times = np.arange(n) * 0.1
+    seeds = rng.integers(0, 2**31, n)
+    vary = rng.random() < 0.3  # the columns may change from step to step
+
+    class Series(VTKPythonAlgorithmBase):
+        def __init__(self):
+            VTKPythonAlgorithmBase.__init__(self, nInputPorts=0, nOutputPorts=1,
+                                            outputType="vtkTable" if as_table else "vtkPolyData")
+
+        def RequestInformation(self, request, inInfo, outInfo):
+            if times is not None:
+                info = outInfo.GetInformationObject(0)
+                info.Set(SDDP.TIME_STEPS(), list(times), len(times))
+                info.Set(SDDP.TIME_RANGE(), [times[0], times[-1]], 2)
+            return 1
+
+        def RequestData(self, request, inInfo, outInfo):
+            info = outInfo.GetInformationObject(0)
+            k = 0
+            if times is not None and info.Has(SDDP.UPDATE_TIME_STEP()):
+                k = int(np.argmin(np.abs(times - info.Get(SDDP.UPDATE_TIME_STEP()))))
+            out = self.GetOutputData(outInfo, 0)
+            out.ShallowCopy(random_step(int(seeds[k] if vary else seeds[0]), int(seeds[k]), as_table))
+            return 1
+
+    settings = {"custom_range": rng.random() < 0.3, "range": sorted(rng.uniform(-1.0, 5.0, 2)),
+                "stride": int(rng.integers(1, 5)), "custom_start": rng.random() < 0.3,
+                "start": float(rng.uniform(-1.0, 5.0)), "length": float(rng.choice([0.0, 1.0, -1.0])),
+                "speed": float(rng.choice([0.0, 2.0]))}
+    keep = []
+
+    def make():
+        src = Series()
+        lh = vtkLoadHistory()
+        lh.SetInputConnection(src.GetOutputPort())
+        lh.SetUseCustomTimeRange(settings["custom_range"])
+        lh.SetTimeRange(*settings["range"])
+        lh.SetStride(settings["stride"])
+        lh.SetUseCustomStatisticsStart(settings["custom_start"])
+        lh.SetStatisticsStart(settings["start"])
+        lh.SetReferenceLength(settings["length"])
+        lh.SetReferenceSpeed(settings["speed"])
+        keep.append(src)
+        return lh
+
+    ok, outs, msgs = run_both_backends(make, [])
+    check_failure_reported("Load History", ok, msgs)
+    stats["lh_ok" if ok else "lh_fail"] += 1
+    visited = 1
+    if times is not None:
+        sel = times if not settings["custom_range"] else \
+            times[(times >= settings["range"][0]) & (times <= settings["range"][1])]
+        visited = len(sel[::settings["stride"]])
+        check(ok or visited == 0 or msgs.errors, "Load History failed without a reason")
+        if visited == 0:
+            check(not ok, "Load History: a time range with no step did not fail")
+            return
+    if not ok:
+        return
+    history, table = outs
+    check(history.GetNumberOfRows() == visited,
+          "Load History: %d history rows for %d visited steps" % (history.GetNumberOfRows(), visited))
+    check(history.GetNumberOfColumns() >= 1 and history.GetColumnName(0) == "Time",
+          "Load History: the history does not start with Time")
+    check(table.GetNumberOfRows() == history.GetNumberOfColumns() - 1,
+          "Load History: %d statistics rows for %d quantities" % (table.GetNumberOfRows(),
+                                                                   history.GetNumberOfColumns() - 1))
+    for r in range(table.GetNumberOfRows()):
+        value = {table.GetColumnName(c): table.GetValue(r, c).ToDouble() for c in range(1, table.GetNumberOfColumns())}
+        check(value["Samples"] <= history.GetNumberOfRows(), "Load History: more samples than steps")
+        if all(np.isfinite([value["Minimum"], value["Mean"], value["Maximum"]])):
+            big = max(abs(value["Minimum"]), abs(value["Maximum"]))
+            check(value["Minimum"] - 1e-12 * big <= value["Mean"] <= value["Maximum"] + 1e-12 * big,
+                  "Load History: mean outside [min, max]")
+        check(not value["Standard Error Of Mean"] < 0, "Load History: negative standard error")
+        check(not value["Dominant Frequency"] <= 0, "Load History: non-positive frequency")
+
+
+CHAINS = {"surface": run_surface_chain, "raw-integration": run_raw_integration, "volume": run_volume_chain,
+          "history": run_history}
 WEIGHTS = {"surface": 0.6, "raw-integration": 0.1, "volume": 0.3}
+# Load History runs beside the chain drawn for a seed (in 10 % of the seeds,
+# from a random stream of its own), so the cases the other chains draw for a
+# seed stay those they drew before it was added.
+HISTORY_SHARE = 0.1
 
 
 def run_case(seed, chains, stats):
     rng = np.random.default_rng(seed)
     clean = rng.random() < 0.3
-    names = list(chains)
-    p = np.array([WEIGHTS[n] for n in names])
-    chain = names[int(rng.choice(len(names), p=p / p.sum()))]
-    stats["clean" if clean else "hostile"] += 1
-    CHAINS[chain](rng, clean, stats)
+    names = [n for n in chains if n in WEIGHTS]
+    if names:
+        p = np.array([WEIGHTS[n] for n in names])
+        chain = names[int(rng.choice(len(names), p=p / p.sum()))]
+        stats["clean" if clean else "hostile"] += 1
+        CHAINS[chain](rng, clean, stats)
+    history_rng = np.random.default_rng([seed, 10])
+    if "history" in chains and (history_rng.random() < HISTORY_SHARE or names == []):
+        run_history(history_rng, clean, stats)
 
 
 def run_isolated(args, seeds):

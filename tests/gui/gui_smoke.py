@@ -19,7 +19,8 @@ try:
     src = os.environ["WALLLOADS_SOURCE_DIR"]
     from paraview import servermanager as sm
     xml_names = [sm.ProxyManager().GetPrototypeProxy("filters", n) is not None
-                 for n in ("WallTraction", "LoadIntegration", "ShearProjection", "LoadDistribution")]
+                 for n in ("WallTraction", "LoadIntegration", "ShearProjection", "LoadHistory",
+                           "LoadDistribution")]
     assert all(xml_names), "filters missing from the GUI's proxy manager: %s" % xml_names
     exact = json.load(open(os.path.join(src, "examples", "demo", "analytic.json")))
     reader = simple.XMLMultiBlockDataReader(FileName=[os.path.join(src, "examples", "demo", "bead.vtm")])

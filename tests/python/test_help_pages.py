@@ -65,10 +65,18 @@ T.expect("panel labels and scripting names", "<b>Reference Pressure</b><br/><cod
 T.expect("overview: what each filter does and both paths",
          all(s in overview for s in ("Surface path", "Volume path", "Shear Projection", "Load Summary",
                                      "One reference state", "engineering judgement")))
+lh = open(os.path.join(HELP, "filters.LoadHistory.html")).read()
+missing = [(n, u) for n, u, c, m in cols["WALLLOADS_STATISTICS_COLUMNS"] if row_of(lh, n) != (u or "-")]
+T.expect("Load History page: every statistics column with its unit", not missing, str(missing))
+T.expect("Load History page: every property documented",
+         all("<code>%s</code>" % p in lh for p in ("TimeRange", "Stride", "StatisticsStart", "ReferenceLength",
+                                                   "ReferenceSpeed", "UseCustomTimeRange",
+                                                   "UseCustomStatisticsStart")))
 qhp = open(os.path.join(HELP, "WallLoads.qhp")).read()
 T.expect("table of contents: the overview first, then every filter",
          re.search(r"<toc><section title=\"WallLoads\" ref=\"wallloads_overview.html\">"
                    r"<section title=\"Overview and workflows\"", qhp) is not None
          and all('ref="filters.%s.html"' % n in qhp for n in ("WallTraction", "LoadIntegration", "ShearProjection", "LoadDistribution")))
+T.expect("table of contents: Load History", 'ref="filters.LoadHistory.html"' in qhp)
 T.expect("the compiled help exists", os.path.getsize(os.path.join(HELP, "WallLoads.qch")) > 10000)
 T.done("test_help_pages")

@@ -615,9 +615,11 @@ def _history(simple, settings, li, selected, made, stage, progress):
     s = settings
     hist = simple.LoadHistory(Input=simple.OutputPort(li, 1))
     made.append(hist)
+    hist.UseCustomTimeRange = 1
     hist.TimeRange = [selected[0], selected[-1]]
     hist.Stride = s["time.stride"]
     if s["time.statistics_start"] is not None:
+        hist.UseCustomStatisticsStart = 1
         hist.StatisticsStart = s["time.statistics_start"]
     hist.ReferenceLength = s["reference.length"]
     hist.ReferenceSpeed = s["reference.speed"]

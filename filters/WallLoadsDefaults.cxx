@@ -17,10 +17,13 @@
 #include "vtkPolyData.h"
 #include "vtkUnsignedCharArray.h"
 #include "vtkUnstructuredGrid.h"
+#include "vtkWeakPointer.h"
 
 #include <algorithm>
 #include <cctype>
 #include <cmath>
+#include <map>
+#include <mutex>
 #include <sstream>
 
 namespace wallloads
@@ -321,6 +324,26 @@ void Notice(vtkObject* self, const std::string& text)
   if (ProcessRank() != 0 || text.empty())
   {
     return;
+  }
+  // A time-step loop (Load History, the report command) re-executes the
+  // filters once per step with the same settings: say it once, and again
+  // only when it changes. Keyed by weak pointer, so that a new filter at a
+  // freed filter's address is never taken for it.
+  if (self)
+  {
+    static std::mutex guard;
+    static std::map<const vtkObject*, std::pair<vtkWeakPointer<vtkObject>, std::string>> last;
+    std::lock_guard<std::mutex> lock(guard);
+    for (auto it = last.begin(); it != last.end();)
+    {
+      it = it->second.first ? std::next(it) : last.erase(it); // forget freed filters
+    }
+    auto& entry = last[self];
+    if (entry.first == self && entry.second == text)
+    {
+      return;
+    }
+    entry = { vtkWeakPointer<vtkObject>(self), text };
   }
   std::ostringstream os;
   os << (self ? self->GetClassName() : "WallLoads") << ": " << text << "\n";

@@ -19,20 +19,9 @@ from vtkmodules.vtkCommonDataModel import vtkCompositeDataSet, vtkMultiBlockData
 from vtkmodules.vtkParallelCore import vtkDummyController, vtkMultiProcessController
 
 
-def _abort_all(kind, value, tb):
-    import traceback
-    traceback.print_exception(kind, value, tb)
-    sys.stdout.flush()
-    os._exit(1)
-
-
-sys.excepthook = _abort_all
-simple = T.load_plugin()
+simple, controller, rank, ranks = T.mpi_start()
 import wallloads.WallLoadsFilters as W  # noqa: E402
 
-controller = vtkMultiProcessController.GetGlobalController()
-rank, ranks = controller.GetLocalProcessId(), controller.GetNumberOfProcesses()
-assert ranks == int(os.environ.get("WALLLOADS_RANKS", ranks))
 
 R, mu, U = 0.4, 3.0e-3, np.array([0.2, -0.1, 0.05])
 pts, faces, _ = sc.uv_sphere(R, 24, 48, ordering="into_wall")

@@ -24,25 +24,9 @@ from vtkmodules.vtkCommonCore import vtkSMPTools, vtkUnsignedCharArray
 from vtkmodules.vtkCommonDataModel import vtkDataSetAttributes
 
 
-def _abort_all(kind, value, tb):
-    # An exception on one rank must end every rank (the others would wait in
-    # a collective forever): print it and leave with a failure code.
-    import traceback
-    traceback.print_exception(kind, value, tb)
-    sys.stdout.flush()
-    sys.stderr.flush()
-    os._exit(1)
-
-
-sys.excepthook = _abort_all
-simple = T.load_plugin()
+simple, controller, rank, ranks = T.mpi_start()
 import wallloads.WallLoadsFilters as W  # noqa: E402
 
-controller = vtkMultiProcessController.GetGlobalController()
-rank = controller.GetLocalProcessId()
-ranks = controller.GetNumberOfProcesses()
-expected_ranks = int(os.environ.get("WALLLOADS_RANKS", ranks))
-assert ranks == expected_ranks, "running on %d ranks, expected %d" % (ranks, expected_ranks)
 vtkSMPTools.SetBackend("STDThread")
 
 R, mu, U = 0.4, 3.0e-3, np.array([0.2, -0.1, 0.05])

@@ -18,25 +18,10 @@ import history_scenes as H
 from vtkmodules.vtkParallelCore import vtkMultiProcessController, vtkDummyController
 
 
-def _abort_all(kind, value, tb):
-    # An exception on one rank must end every rank (the others would wait in
-    # a collective forever).
-    import traceback
-    traceback.print_exception(kind, value, tb)
-    sys.stdout.flush()
-    sys.stderr.flush()
-    os._exit(1)
-
-
-sys.excepthook = _abort_all
-simple = T.load_plugin()
+simple, controller, rank, ranks = T.mpi_start()
 import wallloads.WallLoadsFilters as W  # noqa: E402
 from paraview.modules.vtkPVVTKExtensionsIOCore import vtkPVDReader  # noqa: E402
 
-controller = vtkMultiProcessController.GetGlobalController()
-rank = controller.GetLocalProcessId()
-ranks = controller.GetNumberOfProcesses()
-assert ranks == int(os.environ.get("WALLLOADS_RANKS", ranks))
 
 out = os.path.join(os.environ.get("WALLLOADS_TEST_OUTPUT", tempfile.gettempdir()), "history_mpi_np%d" % ranks)
 t = H.times()[:120]  # 120 uneven steps: the transient and ~5 cycles

@@ -20,25 +20,9 @@ from vtkmodules.vtkParallelCore import vtkMultiProcessController, vtkDummyContro
 from vtkmodules.vtkIOXML import vtkXMLPolyDataWriter, vtkXMLMultiBlockDataReader
 from vtkmodules.vtkCommonCore import vtkSMPTools
 
-def _abort_all(kind, value, tb):
-    # An exception on one rank must end every rank (the others would wait in
-    # a collective forever): print it and leave with a failure code.
-    import traceback
-    traceback.print_exception(kind, value, tb)
-    sys.stdout.flush()
-    sys.stderr.flush()
-    os._exit(1)
-
-
-sys.excepthook = _abort_all
-simple = T.load_plugin()
+simple, controller, rank, ranks = T.mpi_start()
 import wallloads.WallLoadsFilters as W  # noqa: E402
 
-controller = vtkMultiProcessController.GetGlobalController()
-rank = controller.GetLocalProcessId()
-ranks = controller.GetNumberOfProcesses()
-expected_ranks = int(os.environ.get("WALLLOADS_RANKS", ranks))
-assert ranks == expected_ranks, "running on %d ranks, expected %d" % (ranks, expected_ranks)
 vtkSMPTools.SetBackend("STDThread")
 
 # The same surface on every rank (deterministic): Stokes flow past a sphere.

@@ -23,18 +23,7 @@ import scenes as sc
 from vtkmodules.vtkParallelCore import vtkMultiProcessController
 
 
-def _abort_all(kind, value, tb):
-    import traceback
-    traceback.print_exception(kind, value, tb)
-    sys.stdout.flush()
-    os._exit(1)
-
-
-sys.excepthook = _abort_all
-simple = T.load_plugin()
-controller = vtkMultiProcessController.GetGlobalController()
-rank, ranks = controller.GetLocalProcessId(), controller.GetNumberOfProcesses()
-assert ranks == int(os.environ.get("WALLLOADS_RANKS", ranks))
+simple, controller, rank, ranks = T.mpi_start()
 
 H, U, MU, LX, LZ = 0.5, 3.0, 0.02, 2.0, 1.0
 NX, NY, NZ = 12, 4, 3

@@ -24,6 +24,30 @@ def load_plugin():
     return simple
 
 
+def _abort_all(kind, value, tb):
+    # An exception on one rank must end every rank (the others would wait in
+    # a collective forever): print it and leave with a failure code.
+    import traceback
+    traceback.print_exception(kind, value, tb)
+    sys.stdout.flush()
+    sys.stderr.flush()
+    os._exit(1)
+
+
+def mpi_start():
+    """For tests run by `mpirun pvbatch --symmetric`: an exception on any rank
+    ends every rank, the plugin is loaded, and the rank count is the one CTest
+    asked for (WALLLOADS_RANKS). Returns (simple, controller, rank, ranks)."""
+    from vtkmodules.vtkParallelCore import vtkMultiProcessController
+    sys.excepthook = _abort_all
+    load_plugin()
+    controller = vtkMultiProcessController.GetGlobalController()
+    rank, ranks = controller.GetLocalProcessId(), controller.GetNumberOfProcesses()
+    expected = int(os.environ.get("WALLLOADS_RANKS", ranks))
+    assert ranks == expected, "running on %d ranks, expected %d" % (ranks, expected)
+    return simple, controller, rank, ranks
+
+
 def producer(data):
     """A source proxy holding an in-memory VTK data object."""
     src = simple.TrivialProducer()

@@ -101,7 +101,11 @@ struct LeafCache
 
 /// `Direct`: every input array is a double cell array, read without the
 /// views' per-value type and association branches (the same values).
-template <typename I, typename P, bool Direct>
+/// `Shear` (a ShearSources value) and `Arrays` (0 forces only, 1 all
+/// arrays) fix those settings at compile time, so that the face loop carries
+/// no branch and no code for the paths it does not take; -1: read from the
+/// settings per face (the general loop, kept small in number).
+template <typename I, typename P, bool Direct, int Shear = -1, int Arrays = -1>
 struct FaceLoop
 {
   const Settings& S;
@@ -121,6 +125,9 @@ struct FaceLoop
 
   void Initialize() {}
 
+  int ShearSource() const { return Shear >= 0 ? Shear : S.ShearSource; }
+  bool Full() const { return Arrays >= 0 ? Arrays == 1 : Out.Full; }
+
   double Val(const ArrayView& v, vtkIdType c, const I* ids, int n, int k) const
   {
     if (Direct)
@@ -138,7 +145,7 @@ struct FaceLoop
     {
       a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
     }
-    if (!Out.Full)
+    if (!this->Full())
     {
       return;
     }
@@ -216,6 +223,7 @@ struct FaceLoop
       FaceTractionInput<double> tin;
       tin.Normal = normal;
       tin.IncludeNormalViscousStress = S.IncludeNormal;
+      tin.WantShearMagnitude = Out.Cf != nullptr;
       if (In.Pressure.Valid())
       {
         const double p = this->Val(In.Pressure, c, ids, n, 0);
@@ -227,7 +235,7 @@ struct FaceLoop
       }
       double shear[3];
       double gradient[9];
-      if (S.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS)
+      if (this->ShearSource() == vtkWallTraction::WALL_SHEAR_STRESS)
       {
         const double f = S.ShearPerUnitDensity ? rho : 1.0;
         for (int k = 0; k < 3; ++k)
@@ -236,11 +244,20 @@ struct FaceLoop
         }
         tin.ShearVector = shear;
       }
-      else if (S.ShearSource == vtkWallTraction::VELOCITY_GRADIENT)
+      else if (this->ShearSource() == vtkWallTraction::VELOCITY_GRADIENT)
       {
-        for (int k = 0; k < 9; ++k)
+        if (Direct)
         {
-          gradient[k] = this->Val(In.Gradient, c, ids, n, k);
+          // Read in place (validated: 9 components); no copy per face.
+          tin.VelocityGradient = static_cast<const double*>(In.Gradient.Data) + 9 * c;
+        }
+        else
+        {
+          for (int k = 0; k < 9; ++k)
+          {
+            gradient[k] = this->Val(In.Gradient, c, ids, n, k);
+          }
+          tin.VelocityGradient = gradient;
         }
         double mu = In.Viscosity.Valid() ? this->Val(In.Viscosity, c, ids, n, 0) : S.Viscosity;
         if (In.TurbulentViscosity.Valid())
@@ -248,7 +265,6 @@ struct FaceLoop
           mu += this->Val(In.TurbulentViscosity, c, ids, n, 0);
         }
         tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
-        tin.VelocityGradient = gradient;
       }
       FaceTraction<double> t;
       if (!ComputeFaceTraction(tin, t) || !std::isfinite(sign) || !std::isfinite(rho))
@@ -264,7 +280,7 @@ struct FaceLoop
         Out.ForceP[3 * c + k] = t.Pressure[k] * A;
         Out.ForceV[3 * c + k] = t.Viscous[k] * A;
       }
-      if (Out.Full)
+      if (this->Full())
       {
         for (int k = 0; k < 3; ++k)
         {
@@ -323,28 +339,55 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
   {
     direct = direct && (!v->Valid() || (!v->IsFloat && !v->OnPoints));
   }
-  FaceLoop<I, P, true> fast(s, in, out, topo);
-  FaceLoop<I, P, false> general(s, in, out, topo);
-  fast.Balance = general.Balance = check;
-  if (direct)
+  EdgeBalance balance;
+  // Runs one loop and merges its thread tallies in a fixed order of their
+  // values: compensated sums make the total independent of how the faces
+  // were split among threads.
+  auto run = [&](auto& loop) {
+    loop.Balance = check;
+    vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
+    for (const ThreadTally& t : loop.Local)
+    {
+      tally.WettedArea.Merge(t.Area);
+      tally.NonSurface += t.NonSurface;
+      tally.Degenerate += t.Degenerate;
+      tally.NonFinite += t.NonFinite;
+      tally.Faces += t.Faces;
+      balance.Merge(t.Balance);
+    }
+  };
+  // Double cell arrays (Wall Traction's usual input) get loops compiled for
+  // the viscous source and the array set; anything else the general loop.
+  const int shear = s.ShearSource;
+  if (direct && shear == vtkWallTraction::VELOCITY_GRADIENT && out.Full)
   {
-    vtkSMPTools::For(0, ds->GetNumberOfCells(), fast);
+    FaceLoop<I, P, true, vtkWallTraction::VELOCITY_GRADIENT, 1> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct && shear == vtkWallTraction::VELOCITY_GRADIENT)
+  {
+    FaceLoop<I, P, true, vtkWallTraction::VELOCITY_GRADIENT, 0> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct && shear == vtkWallTraction::WALL_SHEAR_STRESS && out.Full)
+  {
+    FaceLoop<I, P, true, vtkWallTraction::WALL_SHEAR_STRESS, 1> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct && shear == vtkWallTraction::WALL_SHEAR_STRESS)
+  {
+    FaceLoop<I, P, true, vtkWallTraction::WALL_SHEAR_STRESS, 0> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct)
+  {
+    FaceLoop<I, P, true> loop(s, in, out, topo);
+    run(loop);
   }
   else
   {
-    vtkSMPTools::For(0, ds->GetNumberOfCells(), general);
-  }
-  EdgeBalance balance;
-  // Merge thread tallies in a fixed order of their values: compensated sums
-  // make the total independent of how the faces were split among threads.
-  for (const ThreadTally& t : direct ? fast.Local : general.Local)
-  {
-    tally.WettedArea.Merge(t.Area);
-    tally.NonSurface += t.NonSurface;
-    tally.Degenerate += t.Degenerate;
-    tally.NonFinite += t.NonFinite;
-    tally.Faces += t.Faces;
-    balance.Merge(t.Balance);
+    FaceLoop<I, P, false> loop(s, in, out, topo);
+    run(loop);
   }
   if (check && balance.ClosedAndConsistent())
   {

@@ -166,6 +166,23 @@ struct FaceLoop
 
   void operator()(vtkIdType begin, vtkIdType end)
   {
+#if WALLLOADS_AVX2_CLONE
+    if (UseAvx2Loops())
+    {
+      this->FacesAvx2(begin, end);
+      return;
+    }
+#endif
+    this->Faces(begin, end);
+  }
+
+#if WALLLOADS_AVX2_CLONE
+  /// The same loop compiled for AVX2 (FaceGeometry.h): the same values.
+  WALLLOADS_TARGET_AVX2 void FacesAvx2(vtkIdType begin, vtkIdType end) { this->Faces(begin, end); }
+#endif
+
+  WALLLOADS_FACE_INLINE void Faces(vtkIdType begin, vtkIdType end)
+  {
     ThreadTally& tally = this->Local.Local();
     const P* points = static_cast<const P*>(In.Points.Data);
     for (vtkIdType c = begin; c < end; ++c)

@@ -184,18 +184,35 @@ struct FaceLoop
   WALLLOADS_FACE_INLINE void Faces(vtkIdType begin, vtkIdType end)
   {
     ThreadTally& tally = this->Local.Local();
-    const P* points = static_cast<const P*>(In.Points.Data);
+    // Local copies: the loop stores bytes (the orientation check's face
+    // flags), which may alias any member, so members would be reloaded
+    // after every store; locals whose address is never taken are not.
+    const Outputs out = this->Out;
+    const Inputs in = this->In;
+    const FaceTopology<I> topo = this->Topo;
+    const bool balance = this->Balance;
+    const int orientation = S.Orientation;
+    const bool pressurePerUnitDensity = S.PressurePerUnitDensity;
+    const bool shearPerUnitDensity = S.ShearPerUnitDensity;
+    const bool kinematic = S.Kinematic;
+    const bool includeNormal = S.IncludeNormal;
+    const double referencePressure = S.ReferencePressure;
+    const double density = S.Density;
+    const double viscosity = S.Viscosity;
+    const double dynamicPressure = S.DynamicPressure;
+    const double loadDirection[3] = { S.LoadDirection[0], S.LoadDirection[1], S.LoadDirection[2] };
+    const P* points = static_cast<const P*>(in.Points.Data);
     for (vtkIdType c = begin; c < end; ++c)
     {
-      const bool counted = IsCountedCell(In.Ghosts, c);
+      const bool counted = IsCountedCell(in.Ghosts, c);
       I buffer[4];
       const I* ids = nullptr;
-      const int n = Topo.Corners(c, ids, buffer);
+      const int n = topo.Corners(c, ids, buffer);
       if (n == 0)
       {
-        if (Out.FaceOk)
+        if (out.FaceOk)
         {
-          Out.FaceOk[c] = 0;
+          out.FaceOk[c] = 0;
         }
         this->MarkSkipped(c);
         tally.NonSurface += counted;
@@ -203,9 +220,9 @@ struct FaceLoop
       }
       FaceFrame<double> frame; // normal and area only (no centroid here)
       const FaceStatus status = ComputeFaceNormal<double>(points, ids, n, frame.Normal, frame.Area);
-      if (Out.FaceOk)
+      if (out.FaceOk)
       {
-        Out.FaceOk[c] = status == FaceStatus::Ok;
+        out.FaceOk[c] = status == FaceStatus::Ok;
       }
       if (status != FaceStatus::Ok)
       {
@@ -213,38 +230,38 @@ struct FaceLoop
         (status == FaceStatus::NonFinite ? tally.NonFinite : tally.Degenerate) += counted;
         continue;
       }
-      double sign = S.Orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
-      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
+      double sign = orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
+      if (orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
       {
-        const double d = frame.Normal[0] * In.WallNormal.Get(c, 0) +
-          frame.Normal[1] * In.WallNormal.Get(c, 1) + frame.Normal[2] * In.WallNormal.Get(c, 2);
+        const double d = frame.Normal[0] * in.WallNormal.Get(c, 0) +
+          frame.Normal[1] * in.WallNormal.Get(c, 1) + frame.Normal[2] * in.WallNormal.Get(c, 2);
         sign = d > 0 ? 1.0 : (d < 0 ? -1.0 : std::numeric_limits<double>::quiet_NaN());
       }
-      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0 && Out.FaceOk)
+      if (orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0 && out.FaceOk)
       {
-        Out.FaceOk[c] = 2;
+        out.FaceOk[c] = 2;
       }
-      if (this->Balance && counted)
+      if (balance && counted)
       {
         // The faces the orientation check takes: valid geometry, counted.
-        tally.Balance.AddFace(ids, n, S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0);
+        tally.Balance.AddFace(ids, n, orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0);
       }
       const double normal[3] = { sign * frame.Normal[0], sign * frame.Normal[1],
         sign * frame.Normal[2] };
 
-      double rho = S.Density;
-      if (In.Density.Valid())
+      double rho = density;
+      if (in.Density.Valid())
       {
-        rho = this->Val(In.Density, c, ids, n, 0);
+        rho = this->Val(in.Density, c, ids, n, 0);
       }
       FaceTractionInput<double> tin;
       tin.Normal = normal;
-      tin.IncludeNormalViscousStress = S.IncludeNormal;
-      tin.WantShearMagnitude = Out.Cf != nullptr;
-      if (In.Pressure.Valid())
+      tin.IncludeNormalViscousStress = includeNormal;
+      tin.WantShearMagnitude = out.Cf != nullptr;
+      if (in.Pressure.Valid())
       {
-        const double p = this->Val(In.Pressure, c, ids, n, 0);
-        tin.GaugePressure = (S.PressurePerUnitDensity ? rho * p : p) - S.ReferencePressure;
+        const double p = this->Val(in.Pressure, c, ids, n, 0);
+        tin.GaugePressure = (pressurePerUnitDensity ? rho * p : p) - referencePressure;
       }
       else
       {
@@ -254,10 +271,10 @@ struct FaceLoop
       double gradient[9];
       if (this->ShearSource() == vtkWallTraction::WALL_SHEAR_STRESS)
       {
-        const double f = S.ShearPerUnitDensity ? rho : 1.0;
+        const double f = shearPerUnitDensity ? rho : 1.0;
         for (int k = 0; k < 3; ++k)
         {
-          shear[k] = f * this->Val(In.Shear, c, ids, n, k);
+          shear[k] = f * this->Val(in.Shear, c, ids, n, k);
         }
         tin.ShearVector = shear;
       }
@@ -266,22 +283,22 @@ struct FaceLoop
         if (Direct)
         {
           // Read in place (validated: 9 components); no copy per face.
-          tin.VelocityGradient = static_cast<const double*>(In.Gradient.Data) + 9 * c;
+          tin.VelocityGradient = static_cast<const double*>(in.Gradient.Data) + 9 * c;
         }
         else
         {
           for (int k = 0; k < 9; ++k)
           {
-            gradient[k] = this->Val(In.Gradient, c, ids, n, k);
+            gradient[k] = this->Val(in.Gradient, c, ids, n, k);
           }
           tin.VelocityGradient = gradient;
         }
-        double mu = In.Viscosity.Valid() ? this->Val(In.Viscosity, c, ids, n, 0) : S.Viscosity;
-        if (In.TurbulentViscosity.Valid())
+        double mu = in.Viscosity.Valid() ? this->Val(in.Viscosity, c, ids, n, 0) : viscosity;
+        if (in.TurbulentViscosity.Valid())
         {
-          mu += this->Val(In.TurbulentViscosity, c, ids, n, 0);
+          mu += this->Val(in.TurbulentViscosity, c, ids, n, 0);
         }
-        tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
+        tin.EffectiveViscosity = kinematic ? rho * mu : mu;
       }
       FaceTraction<double> t;
       if (!ComputeFaceTraction(tin, t) || !std::isfinite(sign) || !std::isfinite(rho))
@@ -291,33 +308,33 @@ struct FaceLoop
         continue;
       }
       const double A = frame.Area;
-      Out.Area[c] = A;
+      out.Area[c] = A;
       for (int k = 0; k < 3; ++k)
       {
-        Out.ForceP[3 * c + k] = t.Pressure[k] * A;
-        Out.ForceV[3 * c + k] = t.Viscous[k] * A;
+        out.ForceP[3 * c + k] = t.Pressure[k] * A;
+        out.ForceV[3 * c + k] = t.Viscous[k] * A;
       }
       if (this->Full())
       {
         for (int k = 0; k < 3; ++k)
         {
           const vtkIdType j = 3 * c + k;
-          Out.Normal[j] = normal[k];
-          Out.TractionP[j] = t.Pressure[k];
-          Out.TractionV[j] = t.Viscous[k];
-          Out.Traction[j] = t.Total[k];
-          Out.Force[j] = t.Total[k] * A;
+          out.Normal[j] = normal[k];
+          out.TractionP[j] = t.Pressure[k];
+          out.TractionV[j] = t.Viscous[k];
+          out.Traction[j] = t.Total[k];
+          out.Force[j] = t.Total[k] * A;
         }
-        Out.NormalV[c] = t.NormalViscous;
-        Out.Directional[c] = Dot(t.Total, S.LoadDirection);
+        out.NormalV[c] = t.NormalViscous;
+        out.Directional[c] = Dot(t.Total, loadDirection);
       }
-      if (Out.Cp)
+      if (out.Cp)
       {
-        Out.Cp[c] = tin.GaugePressure / S.DynamicPressure;
+        out.Cp[c] = tin.GaugePressure / dynamicPressure;
       }
-      if (Out.Cf)
+      if (out.Cf)
       {
-        Out.Cf[c] = t.ShearMagnitude / S.DynamicPressure;
+        out.Cf[c] = t.ShearMagnitude / dynamicPressure;
       }
       if (counted)
       {

@@ -218,6 +218,26 @@ struct SumLoop
 
   void Direct(vtkIdType begin, vtkIdType end)
   {
+#if WALLLOADS_AVX2_CLONE
+    if (UseAvx2Loops())
+    {
+      this->DirectAvx2(begin, end);
+      return;
+    }
+#endif
+    this->DirectFaces(begin, end);
+  }
+
+#if WALLLOADS_AVX2_CLONE
+  /// The same loop compiled for AVX2 (FaceGeometry.h): the same values.
+  WALLLOADS_TARGET_AVX2 void DirectAvx2(vtkIdType begin, vtkIdType end)
+  {
+    this->DirectFaces(begin, end);
+  }
+#endif
+
+  WALLLOADS_FACE_INLINE void DirectFaces(vtkIdType begin, vtkIdType end)
+  {
     Sums& sums = this->Local.Local()[static_cast<std::size_t>(In.FixedRegion)];
     SlotSums acc;
     acc.Load(sums);

@@ -101,7 +101,11 @@ struct LeafCache
 
 /// `Direct`: every input array is a double cell array, read without the
 /// views' per-value type and association branches (the same values).
-template <typename I, typename P, bool Direct>
+/// `Shear` (a ShearSources value) and `Arrays` (0 forces only, 1 all
+/// arrays) fix those settings at compile time, so that the face loop carries
+/// no branch and no code for the paths it does not take; -1: read from the
+/// settings per face (the general loop, kept small in number).
+template <typename I, typename P, bool Direct, int Shear = -1, int Arrays = -1>
 struct FaceLoop
 {
   const Settings& S;
@@ -121,6 +125,9 @@ struct FaceLoop
 
   void Initialize() {}
 
+  int ShearSource() const { return Shear >= 0 ? Shear : S.ShearSource; }
+  bool Full() const { return Arrays >= 0 ? Arrays == 1 : Out.Full; }
+
   double Val(const ArrayView& v, vtkIdType c, const I* ids, int n, int k) const
   {
     if (Direct)
@@ -138,7 +145,7 @@ struct FaceLoop
     {
       a[3 * c] = a[3 * c + 1] = a[3 * c + 2] = nan;
     }
-    if (!Out.Full)
+    if (!this->Full())
     {
       return;
     }
@@ -159,19 +166,53 @@ struct FaceLoop
 
   void operator()(vtkIdType begin, vtkIdType end)
   {
+#if WALLLOADS_AVX2_CLONE
+    if (UseAvx2Loops())
+    {
+      this->FacesAvx2(begin, end);
+      return;
+    }
+#endif
+    this->Faces(begin, end);
+  }
+
+#if WALLLOADS_AVX2_CLONE
+  /// The same loop compiled for AVX2 (FaceGeometry.h): the same values.
+  WALLLOADS_TARGET_AVX2 void FacesAvx2(vtkIdType begin, vtkIdType end) { this->Faces(begin, end); }
+#endif
+
+  WALLLOADS_FACE_INLINE void Faces(vtkIdType begin, vtkIdType end)
+  {
     ThreadTally& tally = this->Local.Local();
-    const P* points = static_cast<const P*>(In.Points.Data);
+    // Local copies: the loop stores bytes (the orientation check's face
+    // flags), which may alias any member, so members would be reloaded
+    // after every store; locals whose address is never taken are not.
+    const Outputs out = this->Out;
+    const Inputs in = this->In;
+    const FaceTopology<I> topo = this->Topo;
+    const bool balance = this->Balance;
+    const int orientation = S.Orientation;
+    const bool pressurePerUnitDensity = S.PressurePerUnitDensity;
+    const bool shearPerUnitDensity = S.ShearPerUnitDensity;
+    const bool kinematic = S.Kinematic;
+    const bool includeNormal = S.IncludeNormal;
+    const double referencePressure = S.ReferencePressure;
+    const double density = S.Density;
+    const double viscosity = S.Viscosity;
+    const double dynamicPressure = S.DynamicPressure;
+    const double loadDirection[3] = { S.LoadDirection[0], S.LoadDirection[1], S.LoadDirection[2] };
+    const P* points = static_cast<const P*>(in.Points.Data);
     for (vtkIdType c = begin; c < end; ++c)
     {
-      const bool counted = IsCountedCell(In.Ghosts, c);
+      const bool counted = IsCountedCell(in.Ghosts, c);
       I buffer[4];
       const I* ids = nullptr;
-      const int n = Topo.Corners(c, ids, buffer);
+      const int n = topo.Corners(c, ids, buffer);
       if (n == 0)
       {
-        if (Out.FaceOk)
+        if (out.FaceOk)
         {
-          Out.FaceOk[c] = 0;
+          out.FaceOk[c] = 0;
         }
         this->MarkSkipped(c);
         tally.NonSurface += counted;
@@ -179,9 +220,9 @@ struct FaceLoop
       }
       FaceFrame<double> frame; // normal and area only (no centroid here)
       const FaceStatus status = ComputeFaceNormal<double>(points, ids, n, frame.Normal, frame.Area);
-      if (Out.FaceOk)
+      if (out.FaceOk)
       {
-        Out.FaceOk[c] = status == FaceStatus::Ok;
+        out.FaceOk[c] = status == FaceStatus::Ok;
       }
       if (status != FaceStatus::Ok)
       {
@@ -189,37 +230,38 @@ struct FaceLoop
         (status == FaceStatus::NonFinite ? tally.NonFinite : tally.Degenerate) += counted;
         continue;
       }
-      double sign = S.Orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
-      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
+      double sign = orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
+      if (orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
       {
-        const double d = frame.Normal[0] * In.WallNormal.Get(c, 0) +
-          frame.Normal[1] * In.WallNormal.Get(c, 1) + frame.Normal[2] * In.WallNormal.Get(c, 2);
+        const double d = frame.Normal[0] * in.WallNormal.Get(c, 0) +
+          frame.Normal[1] * in.WallNormal.Get(c, 1) + frame.Normal[2] * in.WallNormal.Get(c, 2);
         sign = d > 0 ? 1.0 : (d < 0 ? -1.0 : std::numeric_limits<double>::quiet_NaN());
       }
-      if (S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0 && Out.FaceOk)
+      if (orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0 && out.FaceOk)
       {
-        Out.FaceOk[c] = 2;
+        out.FaceOk[c] = 2;
       }
-      if (this->Balance && counted)
+      if (balance && counted)
       {
         // The faces the orientation check takes: valid geometry, counted.
-        tally.Balance.AddFace(ids, n, S.Orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0);
+        tally.Balance.AddFace(ids, n, orientation == vtkWallTraction::WALL_NORMAL_ARRAY && sign < 0);
       }
       const double normal[3] = { sign * frame.Normal[0], sign * frame.Normal[1],
         sign * frame.Normal[2] };
 
-      double rho = S.Density;
-      if (In.Density.Valid())
+      double rho = density;
+      if (in.Density.Valid())
       {
-        rho = this->Val(In.Density, c, ids, n, 0);
+        rho = this->Val(in.Density, c, ids, n, 0);
       }
       FaceTractionInput<double> tin;
       tin.Normal = normal;
-      tin.IncludeNormalViscousStress = S.IncludeNormal;
-      if (In.Pressure.Valid())
+      tin.IncludeNormalViscousStress = includeNormal;
+      tin.WantShearMagnitude = out.Cf != nullptr;
+      if (in.Pressure.Valid())
       {
-        const double p = this->Val(In.Pressure, c, ids, n, 0);
-        tin.GaugePressure = (S.PressurePerUnitDensity ? rho * p : p) - S.ReferencePressure;
+        const double p = this->Val(in.Pressure, c, ids, n, 0);
+        tin.GaugePressure = (pressurePerUnitDensity ? rho * p : p) - referencePressure;
       }
       else
       {
@@ -227,28 +269,36 @@ struct FaceLoop
       }
       double shear[3];
       double gradient[9];
-      if (S.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS)
+      if (this->ShearSource() == vtkWallTraction::WALL_SHEAR_STRESS)
       {
-        const double f = S.ShearPerUnitDensity ? rho : 1.0;
+        const double f = shearPerUnitDensity ? rho : 1.0;
         for (int k = 0; k < 3; ++k)
         {
-          shear[k] = f * this->Val(In.Shear, c, ids, n, k);
+          shear[k] = f * this->Val(in.Shear, c, ids, n, k);
         }
         tin.ShearVector = shear;
       }
-      else if (S.ShearSource == vtkWallTraction::VELOCITY_GRADIENT)
+      else if (this->ShearSource() == vtkWallTraction::VELOCITY_GRADIENT)
       {
-        for (int k = 0; k < 9; ++k)
+        if (Direct)
         {
-          gradient[k] = this->Val(In.Gradient, c, ids, n, k);
+          // Read in place (validated: 9 components); no copy per face.
+          tin.VelocityGradient = static_cast<const double*>(in.Gradient.Data) + 9 * c;
         }
-        double mu = In.Viscosity.Valid() ? this->Val(In.Viscosity, c, ids, n, 0) : S.Viscosity;
-        if (In.TurbulentViscosity.Valid())
+        else
         {
-          mu += this->Val(In.TurbulentViscosity, c, ids, n, 0);
+          for (int k = 0; k < 9; ++k)
+          {
+            gradient[k] = this->Val(in.Gradient, c, ids, n, k);
+          }
+          tin.VelocityGradient = gradient;
         }
-        tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
-        tin.VelocityGradient = gradient;
+        double mu = in.Viscosity.Valid() ? this->Val(in.Viscosity, c, ids, n, 0) : viscosity;
+        if (in.TurbulentViscosity.Valid())
+        {
+          mu += this->Val(in.TurbulentViscosity, c, ids, n, 0);
+        }
+        tin.EffectiveViscosity = kinematic ? rho * mu : mu;
       }
       FaceTraction<double> t;
       if (!ComputeFaceTraction(tin, t) || !std::isfinite(sign) || !std::isfinite(rho))
@@ -258,33 +308,33 @@ struct FaceLoop
         continue;
       }
       const double A = frame.Area;
-      Out.Area[c] = A;
+      out.Area[c] = A;
       for (int k = 0; k < 3; ++k)
       {
-        Out.ForceP[3 * c + k] = t.Pressure[k] * A;
-        Out.ForceV[3 * c + k] = t.Viscous[k] * A;
+        out.ForceP[3 * c + k] = t.Pressure[k] * A;
+        out.ForceV[3 * c + k] = t.Viscous[k] * A;
       }
-      if (Out.Full)
+      if (this->Full())
       {
         for (int k = 0; k < 3; ++k)
         {
           const vtkIdType j = 3 * c + k;
-          Out.Normal[j] = normal[k];
-          Out.TractionP[j] = t.Pressure[k];
-          Out.TractionV[j] = t.Viscous[k];
-          Out.Traction[j] = t.Total[k];
-          Out.Force[j] = t.Total[k] * A;
+          out.Normal[j] = normal[k];
+          out.TractionP[j] = t.Pressure[k];
+          out.TractionV[j] = t.Viscous[k];
+          out.Traction[j] = t.Total[k];
+          out.Force[j] = t.Total[k] * A;
         }
-        Out.NormalV[c] = t.NormalViscous;
-        Out.Directional[c] = Dot(t.Total, S.LoadDirection);
+        out.NormalV[c] = t.NormalViscous;
+        out.Directional[c] = Dot(t.Total, loadDirection);
       }
-      if (Out.Cp)
+      if (out.Cp)
       {
-        Out.Cp[c] = tin.GaugePressure / S.DynamicPressure;
+        out.Cp[c] = tin.GaugePressure / dynamicPressure;
       }
-      if (Out.Cf)
+      if (out.Cf)
       {
-        Out.Cf[c] = t.ShearMagnitude / S.DynamicPressure;
+        out.Cf[c] = t.ShearMagnitude / dynamicPressure;
       }
       if (counted)
       {
@@ -323,28 +373,55 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
   {
     direct = direct && (!v->Valid() || (!v->IsFloat && !v->OnPoints));
   }
-  FaceLoop<I, P, true> fast(s, in, out, topo);
-  FaceLoop<I, P, false> general(s, in, out, topo);
-  fast.Balance = general.Balance = check;
-  if (direct)
+  EdgeBalance balance;
+  // Runs one loop and merges its thread tallies in a fixed order of their
+  // values: compensated sums make the total independent of how the faces
+  // were split among threads.
+  auto run = [&](auto& loop) {
+    loop.Balance = check;
+    vtkSMPTools::For(0, ds->GetNumberOfCells(), loop);
+    for (const ThreadTally& t : loop.Local)
+    {
+      tally.WettedArea.Merge(t.Area);
+      tally.NonSurface += t.NonSurface;
+      tally.Degenerate += t.Degenerate;
+      tally.NonFinite += t.NonFinite;
+      tally.Faces += t.Faces;
+      balance.Merge(t.Balance);
+    }
+  };
+  // Double cell arrays (Wall Traction's usual input) get loops compiled for
+  // the viscous source and the array set; anything else the general loop.
+  const int shear = s.ShearSource;
+  if (direct && shear == vtkWallTraction::VELOCITY_GRADIENT && out.Full)
   {
-    vtkSMPTools::For(0, ds->GetNumberOfCells(), fast);
+    FaceLoop<I, P, true, vtkWallTraction::VELOCITY_GRADIENT, 1> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct && shear == vtkWallTraction::VELOCITY_GRADIENT)
+  {
+    FaceLoop<I, P, true, vtkWallTraction::VELOCITY_GRADIENT, 0> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct && shear == vtkWallTraction::WALL_SHEAR_STRESS && out.Full)
+  {
+    FaceLoop<I, P, true, vtkWallTraction::WALL_SHEAR_STRESS, 1> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct && shear == vtkWallTraction::WALL_SHEAR_STRESS)
+  {
+    FaceLoop<I, P, true, vtkWallTraction::WALL_SHEAR_STRESS, 0> loop(s, in, out, topo);
+    run(loop);
+  }
+  else if (direct)
+  {
+    FaceLoop<I, P, true> loop(s, in, out, topo);
+    run(loop);
   }
   else
   {
-    vtkSMPTools::For(0, ds->GetNumberOfCells(), general);
-  }
-  EdgeBalance balance;
-  // Merge thread tallies in a fixed order of their values: compensated sums
-  // make the total independent of how the faces were split among threads.
-  for (const ThreadTally& t : direct ? fast.Local : general.Local)
-  {
-    tally.WettedArea.Merge(t.Area);
-    tally.NonSurface += t.NonSurface;
-    tally.Degenerate += t.Degenerate;
-    tally.NonFinite += t.NonFinite;
-    tally.Faces += t.Faces;
-    balance.Merge(t.Balance);
+    FaceLoop<I, P, false> loop(s, in, out, topo);
+    run(loop);
   }
   if (check && balance.ClosedAndConsistent())
   {

@@ -53,6 +53,9 @@ struct FaceTractionInput
   const T* VelocityGradient = nullptr; ///< 9 components, or nullptr
   T EffectiveViscosity = 0;           ///< mu + mu_t, Pa s (gradient path only)
   bool IncludeNormalViscousStress = false;
+  /// false: ShearMagnitude is left 0 (spares a square root per face when
+  /// the caller does not use it; every other output is the same).
+  bool WantShearMagnitude = true;
 };
 
 template <typename T>
@@ -88,7 +91,7 @@ inline bool ComputeFaceTraction(const FaceTractionInput<T>& in, FaceTraction<T>&
   }
   T shear[3];
   out.NormalViscous = SplitNormalTangential(viscous, n, shear);
-  out.ShearMagnitude = Norm(shear);
+  out.ShearMagnitude = in.WantShearMagnitude ? Norm(shear) : T(0);
   const T keep = in.IncludeNormalViscousStress ? out.NormalViscous : T(0);
   for (int i = 0; i < 3; ++i)
   {

@@ -648,6 +648,9 @@ int vtkLoadIntegration::RequestData(
   if (agreed[0] > 0)
   {
     ReportAgreedFailure(this, error);
+    output->Initialize(); // nothing stale passed on as a result
+    table->Initialize();
+    summary->Initialize();
     return 0;
   }
   this->UpdateProgress(0.1);
@@ -668,7 +671,8 @@ int vtkLoadIntegration::RequestData(
       const double span = agreed[1] + agreed[2] + 1;
       if (span > static_cast<double>(MaximumRegionSpan))
       {
-        vtkErrorMacro("Region Array '" << regionSel.Name << "' spans " << span
+        vtkErrorMacro("Region Array '" << regionSel.Name << "' spans "
+                                       << static_cast<long long>(span)
                                        << " values; at most " << MaximumRegionSpan
                                        << " are supported.");
         output->Initialize();

@@ -203,6 +203,37 @@ def item4():
     expect_error(load_integration(bad), "refer to point 12345")
 
 
+# --- item 4, the cell arrays themselves: offsets past the connectivity, short type arrays ---
+def item4_cells():
+    from vtkmodules.vtkCommonDataModel import vtkUnstructuredGrid
+    from vtkmodules.util.numpy_support import numpy_to_vtk as n2v
+    pd = squares(2)
+    cell_scalar(pd, "p", [1.0] * 4)
+    conn = pd.GetPolys().GetConnectivityArray()
+    offsets = n2v(np.array([0, 4, 8, 12, 4000], dtype=np.int64), deep=1)
+    polys = vtkCellArray()
+    polys.SetData(offsets, conn)  # the last cell ends far past the connectivity
+    pd.SetPolys(polys)
+    expect_error(wall_traction(pd), "offsets")
+    pd = squares(2)
+    cell_scalar(pd, "p", [1.0] * 4)
+    offsets = n2v(np.array([0, 8, 4, 12, 16], dtype=np.int64), deep=1)
+    polys = vtkCellArray()
+    polys.SetData(offsets, pd.GetPolys().GetConnectivityArray())  # decreasing offsets
+    pd.SetPolys(polys)
+    expect_error(wall_traction(pd), "offsets")
+    # An unstructured grid with fewer cell types than cells.
+    src = squares(2)
+    ug = vtkUnstructuredGrid()
+    ug.SetPoints(src.GetPoints())
+    types = vtkUnsignedCharArray()
+    types.SetNumberOfTuples(1)
+    types.SetValue(0, 9)  # VTK_QUAD
+    ug.SetCells(types, src.GetPolys())
+    cell_scalar(ug, "p", [1.0] * 4)
+    expect_error(wall_traction(ug), "cell types")
+
+
 # --- item 10: cells without points, image blocks -----------------------------------------
 def item10():
     pd = squares(2)
@@ -351,7 +382,7 @@ def ghosts():
         expect_error(load_integration(mb), "vtkGhostType", "grid")
 
 
-ITEMS = {"item2": item2, "item3": item3, "item4": item4, "item10": item10, "item11": item11,
+ITEMS = {"item2": item2, "item3": item3, "item4": item4, "item4_cells": item4_cells, "item10": item10, "item11": item11,
          "item12": item12, "item13": item13, "item15": item15, "ghosts": ghosts}
 
 if __name__ == "__main__":

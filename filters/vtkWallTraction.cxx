@@ -725,6 +725,11 @@ int vtkWallTraction::RequestData(
     {
       vtkWarningMacro("No wall face carries a load: every face was skipped (counts below).");
     }
+    if (!std::isfinite(wetted))
+    {
+      vtkWarningMacro("The Wetted Area is not finite ("
+        << wetted << "): the face areas sum beyond the range of double; it is not a result.");
+    }
     std::ostringstream os;
     if (global[3] > 0)
     {

@@ -317,6 +317,17 @@ def item12():
     li = load_integration(up)
     assert any("not finite" in w for w in li.warnings), "overflowing sum: no warning (%s)" % li.text()
     print("   overflowing sums:", li.text()[:300])
+    # Wall Traction: finite face areas whose sum overflows. Squares of side
+    # 0.9e154 have area 0.81e308 (finite, and so is the Newell vector 1.62e308);
+    # four of them sum past the largest double (1.8e308).
+    pd = squares(2, side=0.9e154)
+    cell_scalar(pd, "p", [0.0] * 4)
+    run = wall_traction(pd)
+    area = T.cell_array(run.output, "Face Area")
+    T.check_close("face area at side 0.9e154", area, [0.81e308] * 4, rtol=1e-14, source="area of a square, s^2")
+    assert any("Wetted Area" in w and "not finite" in w for w in run.warnings), \
+        "overflowing wetted area: no warning (%s)" % run.text()
+    print("   overflowing wetted area:", run.text()[:300])
     # A clean case gives no such warning.
     li = load_integration(traction_output())
     assert not any("not finite" in w for w in li.warnings), li.warnings

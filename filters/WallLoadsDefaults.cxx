@@ -59,6 +59,13 @@ LeafKind ClassifyLeaf(vtkDataSet* ds)
   }
   // Other dataset types (image data, structured grids): a 3D one is a
   // volume; anything else goes to the surface checks, which report it.
+  // VTK reads the ghost arrays of structured data unchecked in GetCellType
+  // (a short one crashes): a bad one goes to the surface checks too.
+  std::string ghostError;
+  if (!CheckGhostArrays(ds, std::string(), ghostError))
+  {
+    return LeafKind::Surface;
+  }
   return ds->GetCellType(0) != VTK_EMPTY_CELL && vtkCellTypes::GetDimension(static_cast<unsigned char>(ds->GetCellType(0))) == 3
     ? LeafKind::NoFaces
     : LeafKind::Surface;

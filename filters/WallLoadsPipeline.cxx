@@ -192,8 +192,75 @@ bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string&
   return true;
 }
 
+namespace
+{
+/// Offsets of a cell array: from 0, never decreasing, ending at the
+/// connectivity's size (VTK reads them unchecked).
+template <typename A>
+bool OffsetsWellFormed(A* offsets, vtkIdType connectivitySize)
+{
+  const vtkIdType n = offsets ? offsets->GetNumberOfValues() : 0;
+  if (n == 0)
+  {
+    return connectivitySize == 0;
+  }
+  const auto* o = offsets->GetPointer(0);
+  if (o[0] != 0 || static_cast<vtkIdType>(o[n - 1]) != connectivitySize)
+  {
+    return false;
+  }
+  for (vtkIdType i = 1; i < n; ++i)
+  {
+    if (o[i] < o[i - 1])
+    {
+      return false;
+    }
+  }
+  return true;
+}
+
+bool CellArrayWellFormed(vtkCellArray* cells)
+{
+  if (!cells)
+  {
+    return true;
+  }
+  const vtkIdType size = cells->GetConnectivityArray()->GetNumberOfValues();
+  return cells->IsStorage64Bit() ? OffsetsWellFormed(cells->GetOffsetsArray64(), size)
+                                 : OffsetsWellFormed(cells->GetOffsetsArray32(), size);
+}
+} // namespace
+
 bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error)
 {
+  const std::string of = blockName.empty() ? std::string() : " of block '" + blockName + "'";
+  std::vector<vtkCellArray*> arrays;
+  if (auto* pd = vtkPolyData::SafeDownCast(ds))
+  {
+    arrays = { pd->GetVerts(), pd->GetLines(), pd->GetPolys(), pd->GetStrips() };
+  }
+  else if (auto* ug = vtkUnstructuredGrid::SafeDownCast(ds))
+  {
+    arrays = { ug->GetCells() };
+    vtkUnsignedCharArray* types = ug->GetCellTypesArray();
+    const vtkIdType numTypes = types ? types->GetNumberOfValues() : 0;
+    if (ug->GetCells() && numTypes != ug->GetCells()->GetNumberOfCells())
+    {
+      error = "The cell types array" + of + " holds " + std::to_string(numTypes) +
+        " cell types for " + std::to_string(ug->GetCells()->GetNumberOfCells()) + " cells.";
+      return false;
+    }
+  }
+  for (vtkCellArray* cells : arrays)
+  {
+    if (!CellArrayWellFormed(cells))
+    {
+      error = "The cells" + of +
+        " are malformed: their offsets do not run from 0 up to the size of the connectivity (" +
+        std::to_string(cells->GetConnectivityArray()->GetNumberOfValues()) + " point ids).";
+      return false;
+    }
+  }
   const vtkIdType numPoints = ds->GetNumberOfPoints();
   vtkIdType lo = 0, hi = -1;
   auto scan = [&](vtkDataArray* ids) {

@@ -137,9 +137,11 @@ vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int w
 bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string& error);
 
 /**
- * Every point id of the cells (polydata and unstructured grid connectivity,
- * polyhedron face streams) must name a point of the dataset: VTK reads them
- * unchecked. False with `error` set (the block, the largest id, the point
+ * The cells of polydata and unstructured grids must be well formed, as VTK
+ * reads them unchecked: offsets from 0, never decreasing, ending at the
+ * connectivity's size; one cell type per cell; every point id (connectivity
+ * and polyhedron face streams) naming a point of the dataset. False with
+ * `error` set (the block, the problem, e.g. the largest id and the point
  * count) otherwise. Other dataset kinds have implicit connectivity.
  */
 bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error);

@@ -19,13 +19,17 @@
 #include "vtkInformationVector.h"
 #include "vtkMath.h"
 #include "vtkObjectFactory.h"
+#include "vtkPolyData.h"
 #include "vtkSMPThreadLocal.h"
 #include "vtkSMPTools.h"
 #include "vtkSmartPointer.h"
 #include "vtkStringArray.h"
 #include "vtkTable.h"
+#include "vtkUnstructuredGrid.h"
 
+#include <algorithm>
 #include <cmath>
+#include <iomanip>
 #include <sstream>
 
 vtkStandardNewMacro(vtkLoadIntegration);
@@ -254,6 +258,51 @@ void FillTables(vtkTable* table, vtkTable* summary, const std::vector<RegionLoad
     summary->AddColumn(q);
   }
 }
+/// A warning naming the totals that are not finite and the likely cause
+/// (the line of action is NaN by design for a pure couple: not listed).
+void WarnNonFinite(vtkLoadIntegration* self, const RegionLoads<double>& total, bool coefficients,
+  const ReferenceState& ref)
+{
+  std::vector<std::string> bad;
+  for (const columns::LoadColumn& col : columns::LoadColumns)
+  {
+    const std::string name(col.Name);
+    if (((col.Flags & columns::COEFFICIENT) && !coefficients) || name == "Line Of Action Point" ||
+      name == "Residual Couple")
+    {
+      continue;
+    }
+    if (!AllFinite(col.Values(total), col.Components))
+    {
+      bad.push_back(name);
+    }
+  }
+  if (bad.empty())
+  {
+    return;
+  }
+  std::ostringstream os;
+  os << "Load Integration: totals not finite: " << QuotedList(bad, 8) << ". ";
+  bool cause = false;
+  if (!AllFinite(ref.Centre, 3))
+  {
+    os << "The Moment Centre (" << ref.Centre[0] << ", " << ref.Centre[1] << ", "
+       << ref.Centre[2] << ") is not finite. ";
+    cause = true;
+  }
+  if (coefficients && !(ref.Values.Length > 0 && ref.Values.Span > 0))
+  {
+    os << "Moment coefficients need a positive Reference Length (" << ref.Values.Length
+       << " m) and Reference Span (" << ref.Values.Span << " m). ";
+    cause = true;
+  }
+  if (!cause)
+  {
+    os << "The sums left the range of double (face loads or moments near 1e308). ";
+  }
+  os << "These totals are not results.";
+  vtkWarningWithObjectMacro(self, << os.str());
+}
 } // namespace
 
 //------------------------------------------------------------------------------
@@ -333,15 +382,11 @@ int vtkLoadIntegration::RequestData(
   }
   // The reference state: properties, else what Wall Traction recorded (the
   // same global field data on every rank, so all ranks agree).
+  // A bad setting fails in the ranks' one agreement below, like bad input
+  // (field data may differ between ranks).
   ReferenceState ref;
-  {
-    std::string error;
-    if (!ResolveReference(this, input->GetFieldData(), ref, error))
-    {
-      vtkErrorMacro(<< error);
-      return 0;
-    }
-  }
+  std::string error;
+  ResolveReference(this, input->GetFieldData(), ref, error);
   const LoadAxes<double>& axes = ref.Axes;
   ArraySelection regionSel = SelectedArray(this, REGION_ARRAY);
   regionSel.OnPoints = false; // regions are cells
@@ -351,19 +396,19 @@ int vtkLoadIntegration::RequestData(
   ListLeaves(input, leaves, regionNames);
   this->UpdateProgress(0.0);
 
-  // Validate locally; agree on the outcome (and the region-value range, and
-  // which regions are volume blocks) in one collective so that every rank
-  // takes the same branch. Leaves without 2D cells (volume blocks passed on
-  // by Wall Traction) are left out.
-  std::string error;
+  // Validate locally; agree on the outcome (and the region-value range, the
+  // number of block regions, whether the input came from Wall Traction) in
+  // one collective of fixed size, so that every rank takes the same branch
+  // whatever blocks it holds. Which block regions hold surface or volume
+  // cells travels with the sums (their count is agreed by then). Leaves
+  // without 2D cells (volume blocks passed on by Wall Traction) are left out.
   std::vector<LeafInputs> inputs(leaves.size());
   std::vector<LeafKind> kinds(leaves.size(), LeafKind::Empty);
   std::vector<std::string> passed;
   double localMin = VTK_DOUBLE_MAX, localMax = -VTK_DOUBLE_MAX, localCells = 0;
   const std::size_t numBlockRegions = regionNames.size();
-  // agreed: failure, max, -min, surface cells, then per block region
-  // (has surface cells, has volume cells).
-  std::vector<double> agreed(4 + 2 * numBlockRegions, 0.0);
+  // Per block region: has surface cells, has volume cells.
+  std::vector<double> blockFlags(2 * numBlockRegions, 0.0);
   for (std::size_t i = 0; i < leaves.size(); ++i)
   {
     kinds[i] = ClassifyLeaf(leaves[i].Data);
@@ -373,7 +418,7 @@ int vtkLoadIntegration::RequestData(
       passed.push_back(leaves[i].Name.empty() ? "block" : leaves[i].Name);
       if (region < numBlockRegions)
       {
-        agreed[4 + 2 * region + 1] = 1;
+        blockFlags[2 * region + 1] = 1;
       }
       continue;
     }
@@ -383,13 +428,21 @@ int vtkLoadIntegration::RequestData(
     }
     if (region < numBlockRegions)
     {
-      agreed[4 + 2 * region] = 1;
+      blockFlags[2 * region] = 1;
     }
     vtkDataSet* ds = leaves[i].Data;
     localCells += static_cast<double>(ds->GetNumberOfCells());
     LeafInputs& in = inputs[i];
-    if (!CheckGhostArrays(ds, leaves[i].Name, error))
+    if (!CheckGhostArrays(ds, leaves[i].Name, error) ||
+      !CheckPointIds(ds, leaves[i].Name, error))
     {
+      continue;
+    }
+    if (!vtkPolyData::SafeDownCast(ds) && !vtkUnstructuredGrid::SafeDownCast(ds))
+    {
+      error = "Load Integration takes Wall Traction's output (polydata or unstructured grids); "
+              "block '" +
+        leaves[i].Name + "' is a " + ds->GetClassName() + ".";
       continue;
     }
     auto need = [&](const char* name, int comps, ArrayView& view) {
@@ -423,6 +476,17 @@ int vtkLoadIntegration::RequestData(
             error = "Region Array '" + regionSel.Name + "' holds a value that is not an integer.";
             break;
           }
+          // One rule on every rank: region values are integers a double
+          // holds exactly (|v| < 2^53); larger ones would merge rows.
+          if (std::fabs(v) >= MaximumExactRegionValue)
+          {
+            std::ostringstream os;
+            os << "Region Array '" << regionSel.Name << "' holds the value " << std::setprecision(17)
+               << v << "; region values must lie strictly between -2^53 and 2^53 ("
+               << MaximumExactRegionValue << ").";
+            error = os.str();
+            break;
+          }
           localMin = std::min(localMin, v);
           localMax = std::max(localMax, v);
         }
@@ -436,22 +500,43 @@ int vtkLoadIntegration::RequestData(
       error = "Block '" + leaves[i].Name + "' has cells but no points.";
     }
   }
-  agreed[0] = error.empty() ? 0.0 : 1.0;
-  agreed[1] = localMax;
-  agreed[2] = -localMin;
-  agreed[3] = localCells;
-  GlobalMax(agreed.data(), static_cast<int>(agreed.size()));
-  if (agreed[0] == 0 && agreed[3] == 0 && !input->GetFieldData()->GetArray(names::WettedArea))
+  const bool noWettedArea = !input->GetFieldData()->GetArray(names::WettedArea);
+  // agreed: failure, max, -min, surface cells, no Wetted Area, block
+  // regions, -block regions (all by maximum).
+  double agreed[7] = { error.empty() ? 0.0 : 1.0, localMax, -localMin, localCells,
+    noWettedArea ? 1.0 : 0.0, static_cast<double>(numBlockRegions),
+    -static_cast<double>(numBlockRegions) };
+  GlobalMax(agreed, 7);
+  if (agreed[0] == 0 && agreed[3] == 0 && agreed[4] > 0)
   {
     // An empty input that never went through Wall Traction (or that Wall
     // Traction refused): zero loads would be passed off as a result.
-    error = "Load Integration's input holds no faces and no 'Wetted Area': it is not the output "
-            "of Wall Traction, or Wall Traction failed upstream (see its error).";
+    if (noWettedArea)
+    {
+      error = "Load Integration's input holds no faces and no 'Wetted Area': it is not the "
+              "output of Wall Traction, or Wall Traction failed upstream (see its error).";
+    }
+    agreed[0] = 1;
+  }
+  if (agreed[0] == 0 && !regionSel.Set() && agreed[5] != -agreed[6])
+  {
+    // Rows are blocks summed over all ranks: the ranks must list the same
+    // blocks (empty where they hold no piece).
+    std::ostringstream os;
+    os << "The ranks hold different blocks (" << -agreed[6] << " to " << agreed[5]
+       << " block regions; this rank " << numBlockRegions
+       << "): Load Integration sums each block over all ranks, so every rank must hold the "
+          "same blocks (empty where it has no piece). Select a Region Array to sum by region "
+          "values instead.";
+    error = os.str();
     agreed[0] = 1;
   }
   if (agreed[0] > 0)
   {
     ReportAgreedFailure(this, error);
+    output->Initialize(); // nothing stale passed on as a result
+    table->Initialize();
+    summary->Initialize();
     return 0;
   }
   this->UpdateProgress(0.1);
@@ -468,12 +553,17 @@ int vtkLoadIntegration::RequestData(
     else
     {
       regionBase = static_cast<long long>(-agreed[2]);
-      const long long span = static_cast<long long>(agreed[1]) - regionBase + 1;
-      if (span > MaximumRegionSpan)
+      // Both ends lie within +-2^53 (checked above): exact in double.
+      const double span = agreed[1] + agreed[2] + 1;
+      if (span > static_cast<double>(MaximumRegionSpan))
       {
-        vtkErrorMacro("Region Array '" << regionSel.Name << "' spans " << span
+        vtkErrorMacro("Region Array '" << regionSel.Name << "' spans "
+                                       << static_cast<long long>(span)
                                        << " values; at most " << MaximumRegionSpan
                                        << " are supported.");
+        output->Initialize();
+        table->Initialize();
+        summary->Initialize();
         return 0;
       }
       numRegions = static_cast<std::size_t>(span);
@@ -505,7 +595,8 @@ int vtkLoadIntegration::RequestData(
 
   // One reduction of every running sum and its compensation, and of the
   // abort request (the last value).
-  std::vector<double> flat(numRegions * NumLoadSlots * 2 + 1);
+  const std::size_t numFlags = regionSel.Set() ? 0 : blockFlags.size();
+  std::vector<double> flat(numRegions * NumLoadSlots * 2 + numFlags + 1);
   for (std::size_t r = 0; r < numRegions; ++r)
   {
     for (std::size_t k = 0; k < NumLoadSlots; ++k)
@@ -514,6 +605,8 @@ int vtkLoadIntegration::RequestData(
       flat[(r * NumLoadSlots + k) * 2 + 1] = sums[r].Sums.Terms[k].Carry;
     }
   }
+  std::copy(blockFlags.begin(), blockFlags.begin() + static_cast<std::ptrdiff_t>(numFlags),
+    flat.begin() + static_cast<std::ptrdiff_t>(numRegions * NumLoadSlots * 2));
   flat.back() = aborted ? 1.0 : 0.0;
   GlobalSum(flat.data(), static_cast<int>(flat.size()));
   if (flat.back() > 0)
@@ -545,7 +638,8 @@ int vtkLoadIntegration::RequestData(
     {
       continue; // a value that no face carries
     }
-    if (!regionSel.Set() && agreed[4 + 2 * r + 1] > 0 && agreed[4 + 2 * r] == 0)
+    const double* flags = flat.data() + numRegions * NumLoadSlots * 2 + 2 * r;
+    if (!regionSel.Set() && flags[1] > 0 && flags[0] == 0)
     {
       continue; // a volume block: no wall faces, no row
     }
@@ -619,6 +713,7 @@ int vtkLoadIntegration::RequestData(
     {
       vtkWarningMacro("Load Integration: the input holds no wall faces; all totals are zero.");
     }
+    WarnNonFinite(this, totalLoads, coefficients, ref);
   }
   this->UpdateProgress(1.0);
   return 1;

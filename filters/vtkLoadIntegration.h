@@ -148,6 +148,9 @@ public:
 
   /// Largest span of region-array values accepted (max - min + 1).
   static constexpr long long MaximumRegionSpan = 1000000;
+  /// Region-array values must lie strictly between -2^53 and 2^53 (integers
+  /// that a double holds exactly, the same rule on every rank).
+  static constexpr double MaximumExactRegionValue = 9007199254740992.0;
 
 protected:
   vtkLoadIntegration();

@@ -104,6 +104,16 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
     MakeOutputs(s, out, cache);
     return true;
   }
+  if (!vtkPolyData::SafeDownCast(in) && !vtkUnstructuredGrid::SafeDownCast(in))
+  {
+    error = "Wall Traction takes polydata or unstructured grids of 2D cells; block '" +
+      blockName + "' is a " + in->GetClassName() + ".";
+    return false;
+  }
+  if (!CheckPointIds(in, blockName, error))
+  {
+    return false;
+  }
   Inputs inputs;
   auto fetch = [&](const ArraySelection& sel, int comps, const char* role, ArrayView& view) {
     if (!sel.Set())
@@ -141,15 +151,18 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   const Outputs o = MakeOutputs(s, out, cache);
   if (!inputs.Points.Data)
   {
-    // Cells without points: nothing is a face.
+    // Cells without points (and so without point ids): nothing is a face;
+    // every per-face value is NaN, as for any skipped face.
+    for (const columns::NamedUnit& u : columns::FaceArrays)
+    {
+      vtkDataArray* a = out->GetCellData()->GetArray(u.Name);
+      if (a && a != in->GetCellData()->GetArray(u.Name))
+      {
+        a->Fill(std::numeric_limits<double>::quiet_NaN());
+      }
+    }
     tally.NonSurface += static_cast<double>(in->GetNumberOfCells());
     return true;
-  }
-  if (!vtkPolyData::SafeDownCast(in) && !vtkUnstructuredGrid::SafeDownCast(in))
-  {
-    error = "Wall Traction takes polydata or unstructured grids of 2D cells; block '" +
-      blockName + "' is a " + in->GetClassName() + ".";
-    return false;
   }
   DispatchFaces(in, inputs.Points.IsFloat, [&](auto id, auto pt) {
     RunFaces<decltype(id), decltype(pt)>(s, inputs, o, in, tally, cache,
@@ -313,6 +326,7 @@ int vtkWallTraction::RequestData(
   if (!(ln > 0) || !std::isfinite(ln))
   {
     vtkErrorMacro("Load Direction must be a non-zero finite vector.");
+    output->Initialize(); // no stale input or totals passed on as a result
     return 0;
   }
   for (int k = 0; k < 3; ++k)
@@ -350,12 +364,14 @@ int vtkWallTraction::RequestData(
   {
     vtkErrorMacro("Shear Source is 'Wall shear stress array' but no Wall Shear Stress array is "
                   "selected.");
+    output->Initialize();
     return 0;
   }
   if (s.ShearSource == VELOCITY_GRADIENT && !s.VelocityGradient.Set())
   {
     vtkErrorMacro("Shear Source is 'Velocity gradient' but no Velocity Gradient array is "
                   "selected.");
+    output->Initialize();
     return 0;
   }
 
@@ -490,6 +506,11 @@ int vtkWallTraction::RequestData(
     else if (global[8] == 0)
     {
       vtkWarningMacro("No wall face carries a load: every face was skipped (counts below).");
+    }
+    if (!std::isfinite(wetted))
+    {
+      vtkWarningMacro("The Wetted Area is not finite ("
+        << wetted << "): the face areas sum beyond the range of double; it is not a result.");
     }
     std::ostringstream os;
     if (global[3] > 0)

@@ -7,7 +7,7 @@ ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 BUILD="${WALLLOADS_SANITIZE_BUILD_DIR:-$ROOT/build-sanitize}"
 JOBS="${WALLLOADS_JOBS:-$(nproc)}"
 bash "$ROOT/scripts/install-deps.sh"
-cmake -S "$ROOT" -B "$BUILD" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DWALLLOADS_SANITIZE=ON
+cmake -S "$ROOT" -B "$BUILD" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DWALLLOADS_SANITIZE=ON -DWALLLOADS_FUZZ_TEST=ON
 cmake --build "$BUILD" -j "$JOBS"
 cd "$BUILD"
 ctest --output-on-failure -j "${WALLLOADS_TEST_JOBS:-2}" "$@"

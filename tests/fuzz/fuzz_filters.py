@@ -740,13 +740,16 @@ def run_isolated(args, seeds):
     while done < seeds.stop:
         with open(trace, "w"):
             pass
-        r = subprocess.run(base + ["--seeds", "%d:%d" % (done, seeds.stop)], capture_output=True, text=True)
+        # Children run at most --progress seeds each, so that a long run
+        # reports its progress and failures as it goes.
+        stop = min(seeds.stop, done + args.progress) if args.progress else seeds.stop
+        r = subprocess.run(base + ["--seeds", "%d:%d" % (done, stop)], capture_output=True, text=True)
         lines = [line for line in r.stdout.splitlines() if line.startswith("FUZZ FAILURE")]
         failed_checks += len(lines)
         for line in lines:
             print(line, flush=True)
         if r.returncode in (0, 1) and "fuzz:" in r.stdout:
-            done = seeds.stop
+            done = stop
         else:
             with open(trace) as fh:
                 text = fh.read().strip()

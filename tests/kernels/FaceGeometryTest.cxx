@@ -111,3 +111,16 @@ TEST(FaceGeometry, FloatPointsAndInt32Ids)
   EXPECT_DOUBLE_EQ(f.Centroid[0], 2.0 / 3);
   EXPECT_DOUBLE_EQ(f.Centroid[1], 1.0);
 }
+
+// A square of side 1e77 far from the origin: the area vector's squared
+// length (1e308) is at the edge of double, its area s^2 = 1e154 is not.
+TEST(FaceGeometry, CoordinatesNear1e77)
+{
+  const double s = 1e77, x0 = 3e77, y0 = -2e77, z0 = 1e77;
+  const std::vector<double> p = { x0, y0, z0, x0 + s, y0, z0, x0 + s, y0 + s, z0, x0, y0 + s, z0 };
+  const auto f = Frame(p, { 0, 1, 2, 3 });
+  EXPECT_NEAR(f.Area, s * s, 1e-14 * s * s);
+  EXPECT_DOUBLE_EQ(f.Normal[2], 1.0);
+  EXPECT_NEAR(f.Centroid[0], x0 + 0.5 * s, 1e-15 * x0);
+  EXPECT_NEAR(f.Centroid[1], y0 + 0.5 * s, 1e-15 * x0);
+}

@@ -103,3 +103,71 @@ TEST(LoadTotals, FinishRegionCoefficients)
   EXPECT_DOUBLE_EQ(out.YawingMomentCoefficient, -5 / (4.5 * 4));
   EXPECT_DOUBLE_EQ(out.FaceCount, 1);
 }
+
+// A moment coefficient without a positive reference length or span is
+// undefined: NaN (M / (q A L) with L = 0 would be infinite).
+TEST(LoadTotals, MomentCoefficientsWithoutLengthAreNaN)
+{
+  LoadSums<double> s;
+  const double r0[3] = { 0, 0, 0 };
+  const double c[3] = { 0, 1, 0 };
+  const double fp[3] = { 4, 0, 2 };
+  const double fv[3] = { 0, 0, 0 };
+  s.AddFace(0.5, c, r0, fp, fv);
+  double slots[NumLoadSlots];
+  for (std::size_t k = 0; k < NumLoadSlots; ++k)
+  {
+    slots[k] = s.Sums.Value(k);
+  }
+  LoadAxes<double> axes;
+  const double d[3] = { 1, 0, 0 }, l[3] = { 0, 0, 1 };
+  ASSERT_TRUE(MakeLoadAxes(d, l, axes));
+  ReferenceValues<double> ref;
+  ref.Speed = 3;
+  ref.Length = 0;
+  ref.Span = 0;
+  RegionLoads<double> out;
+  FinishRegion(slots, r0, axes, ref, out);
+  EXPECT_DOUBLE_EQ(out.DragCoefficient, 4 / 4.5); // C_D = F_D / (q A), q = 4.5, A = 1
+  EXPECT_TRUE(std::isnan(out.PitchingMomentCoefficient));
+  EXPECT_TRUE(std::isnan(out.RollingMomentCoefficient));
+  EXPECT_TRUE(std::isnan(out.YawingMomentCoefficient));
+}
+
+// Directions of any finite size are directions: the norm neither overflows
+// for (1e200, 1e200, 0) nor underflows for (1e-200, 0, 0).
+TEST(LoadAxes, HugeAndTinyDirections)
+{
+  LoadAxes<double> axes;
+  const double d1[3] = { 1e200, 1e200, 0 }, l1[3] = { 0, 0, 1e300 };
+  ASSERT_TRUE(MakeLoadAxes(d1, l1, axes));
+  EXPECT_NEAR(axes.Drag[0], std::sqrt(0.5), 4e-16); // a few ulp: one sqrt, one division
+  EXPECT_NEAR(axes.Drag[1], std::sqrt(0.5), 4e-16); // a few ulp: one sqrt, one division
+  EXPECT_DOUBLE_EQ(axes.Lift[2], 1);
+  const double d2[3] = { 1e-200, 0, 0 }, l2[3] = { 0, 1e-300, 1e-300 };
+  ASSERT_TRUE(MakeLoadAxes(d2, l2, axes));
+  EXPECT_DOUBLE_EQ(axes.Drag[0], 1);
+  EXPECT_NEAR(axes.Lift[1], std::sqrt(0.5), 4e-16); // a few ulp: one sqrt, one division
+  EXPECT_NEAR(axes.Lift[2], std::sqrt(0.5), 4e-16); // a few ulp: one sqrt, one division
+  const double zero[3] = { 0, 0, 0 };
+  EXPECT_FALSE(MakeLoadAxes(zero, l1, axes));
+  EXPECT_DOUBLE_EQ(Norm(zero), 0);
+  const double nan[3] = { std::nan(""), 1, 0 }, inf[3] = { -INFINITY, 1, 0 };
+  EXPECT_TRUE(std::isnan(Norm(nan)));
+  EXPECT_TRUE(std::isinf(Norm(inf)));
+}
+
+// The line of action of a force of 1e200 N (|F|^2 overflows): F = (0, 0, f)
+// at (1, 0, 0) has M = r x F = (0, -f, 0) about the origin; the nearest point
+// of its line is (1, 0, 0) and no couple is left (wrench reduction).
+TEST(LoadAxes, LineOfActionOfHugeForce)
+{
+  const double f = 1e200;
+  const double F[3] = { 0, 0, f }, M[3] = { 0, -f, 0 }, r0[3] = { 0, 0, 0 };
+  double p[3], c;
+  LineOfAction(F, M, r0, p, c);
+  EXPECT_NEAR(p[0], 1, 1e-15);
+  EXPECT_NEAR(p[1], 0, 1e-15);
+  EXPECT_NEAR(p[2], 0, 1e-15);
+  EXPECT_NEAR(c, 0, 1e-15 * f);
+}

@@ -86,21 +86,24 @@ inline void DirectionsFromFlowAngles(T alpha, T beta, T drag[3], T lift[3])
 template <typename T>
 inline void LineOfAction(const T force[3], const T moment[3], const T r0[3], T point[3], T& couple)
 {
-  const T f2 = Dot(force, force);
-  if (!(f2 > T(0)))
+  // With the unit vector of F (no |F|^2, which overflows for |F| > 1e154):
+  // F x M / |F|^2 = (F/|F|) x M / |F| and (F . M) / |F| = (F/|F|) . M.
+  const T f = Norm(force);
+  if (!(f > T(0)))
   {
     const T nan = std::numeric_limits<T>::quiet_NaN();
     point[0] = point[1] = point[2] = nan;
     couple = nan;
     return;
   }
+  const T fhat[3] = { force[0] / f, force[1] / f, force[2] / f };
   T fxm[3];
-  Cross(force, moment, fxm);
+  Cross(fhat, moment, fxm);
   for (int i = 0; i < 3; ++i)
   {
-    point[i] = r0[i] + fxm[i] / f2;
+    point[i] = r0[i] + fxm[i] / f;
   }
-  couple = Dot(force, moment) / std::sqrt(f2);
+  couple = Dot(fhat, moment);
 }
 
 } // namespace wallloads

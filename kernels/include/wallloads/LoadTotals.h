@@ -10,6 +10,7 @@
 #include "wallloads/Vector3.h"
 
 #include <cstddef>
+#include <limits>
 
 namespace wallloads
 {
@@ -127,9 +128,13 @@ inline void FinishRegion(const T slots[NumLoadSlots], const T r0[3], const LoadA
     out.DragCoefficient = out.Drag / qA;
     out.SideForceCoefficient = out.SideForce / qA;
     out.LiftCoefficient = out.Lift / qA;
-    out.RollingMomentCoefficient = out.RollingMoment / (qA * ref.Span);
-    out.PitchingMomentCoefficient = out.PitchingMoment / (qA * ref.Length);
-    out.YawingMomentCoefficient = out.YawingMoment / (qA * ref.Span);
+    // A moment coefficient needs a positive reference length (span): NaN,
+    // not the infinity of a division by zero, when it is not set.
+    const T nan = std::numeric_limits<T>::quiet_NaN();
+    const T qAS = qA * ref.Span, qAL = qA * ref.Length;
+    out.RollingMomentCoefficient = qAS > T(0) ? out.RollingMoment / qAS : nan;
+    out.PitchingMomentCoefficient = qAL > T(0) ? out.PitchingMoment / qAL : nan;
+    out.YawingMomentCoefficient = qAS > T(0) ? out.YawingMoment / qAS : nan;
   }
   // A resultant that is round-off of the face forces (a pure couple on a
   // closed surface) has no line of action: report NaN rather than a point

@@ -3,6 +3,7 @@
 /// Small fixed-size 3-vector helpers on plain arrays; the hot loops use these
 /// instead of a matrix library so that nothing is allocated or virtual.
 #include <cmath>
+#include <limits>
 
 namespace wallloads
 {
@@ -24,10 +25,34 @@ inline void Cross(const T a[3], const T b[3], T out[3])
   out[2] = z;
 }
 
+/**
+ * Euclidean length without overflow or underflow: the plain sqrt(a . a)
+ * when the sum of squares is a normal finite number (the usual case, same
+ * result bit for bit), else the vector scaled by its largest component first,
+ * so that (1e200, 1e200, 0), (1e-200, 0, 0) and the area vectors of faces
+ * with coordinates near 1e154 keep their length. NaN if a component is NaN,
+ * infinity if one is infinite.
+ */
 template <typename T>
 inline T Norm(const T a[3])
 {
-  return std::sqrt(Dot(a, a));
+  const T d = Dot(a, a);
+  if (d < std::numeric_limits<T>::max() &&
+    d >= std::numeric_limits<T>::min() / std::numeric_limits<T>::epsilon())
+  {
+    return std::sqrt(d);
+  }
+  const T m = std::fmax(std::fabs(a[0]), std::fmax(std::fabs(a[1]), std::fabs(a[2])));
+  if (std::isnan(a[0]) || std::isnan(a[1]) || std::isnan(a[2]))
+  {
+    return std::numeric_limits<T>::quiet_NaN();
+  }
+  if (!(m > T(0)) || std::isinf(m))
+  {
+    return m; // zero, or infinite
+  }
+  const T s[3] = { a[0] / m, a[1] / m, a[2] / m };
+  return m * std::sqrt(Dot(s, s));
 }
 
 template <typename T>

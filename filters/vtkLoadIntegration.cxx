@@ -49,25 +49,6 @@ struct ReferenceState
   double DynamicPressure() const { return this->Values.DynamicPressure(); }
 };
 
-/// A one-value field array of the input, if present and finite.
-bool FieldValue(vtkFieldData* fd, const char* name, double* out, int components)
-{
-  vtkDataArray* a = fd ? fd->GetArray(name) : nullptr;
-  if (!a || a->GetNumberOfTuples() < 1 || a->GetNumberOfComponents() != components)
-  {
-    return false;
-  }
-  for (int k = 0; k < components; ++k)
-  {
-    out[k] = a->GetComponent(0, k);
-    if (!std::isfinite(out[k]))
-    {
-      return false;
-    }
-  }
-  return true;
-}
-
 /// The values used in the table, and the message that says so. Returns
 /// false (with `error`) when the axes cannot be made.
 bool ResolveReference(vtkLoadIntegration* self, vtkFieldData* upstream, ReferenceState& ref,
@@ -79,7 +60,7 @@ bool ResolveReference(vtkLoadIntegration* self, vtkFieldData* upstream, Referenc
   if (!(ref.Values.Density > 0))
   {
     ref.DensityFrom = fromTraction;
-    if (!FieldValue(upstream, "Reference Density", &ref.Values.Density, 1) ||
+    if (!FieldVector(upstream, "Reference Density", &ref.Values.Density, 1) ||
       !(ref.Values.Density > 0))
     {
       ref.Values.Density = 1;
@@ -91,7 +72,7 @@ bool ResolveReference(vtkLoadIntegration* self, vtkFieldData* upstream, Referenc
   if (!(ref.Values.Speed > 0))
   {
     ref.SpeedFrom = fromTraction;
-    if (!FieldValue(upstream, "Reference Speed", &ref.Values.Speed, 1) ||
+    if (!FieldVector(upstream, "Reference Speed", &ref.Values.Speed, 1) ||
       !(ref.Values.Speed >= 0))
     {
       ref.Values.Speed = 0;
@@ -692,8 +673,8 @@ int vtkLoadIntegration::RequestData(
     }
     Notice(this, info.str());
     double upstreamSpeed = 0, upstreamQ = 0;
-    if (FieldValue(input->GetFieldData(), "Reference Speed", &upstreamSpeed, 1) &&
-      upstreamSpeed > 0 && FieldValue(input->GetFieldData(), "Dynamic Pressure", &upstreamQ, 1) &&
+    if (FieldVector(input->GetFieldData(), "Reference Speed", &upstreamSpeed, 1) &&
+      upstreamSpeed > 0 && FieldVector(input->GetFieldData(), "Dynamic Pressure", &upstreamQ, 1) &&
       std::fabs(upstreamQ - ref.DynamicPressure()) > 1e-9 * std::max(upstreamQ, ref.DynamicPressure()))
     {
       vtkWarningMacro("Load Integration's dynamic pressure q = "

@@ -17,28 +17,16 @@ Expected totals: unit squares in the plane z = 0 under a uniform gauge
 pressure p, stored normals into the fluid (+z): each face carries -p A n =
 (0, 0, -p) (pressure on a plane, derived in test_hostile_input.py).
 """
-import os
-import sys
 
 import numpy as np
 from vtkmodules.vtkCommonDataModel import (vtkCompositeDataSet, vtkMultiBlockDataSet, vtkPartitionedDataSet,
                                            vtkPartitionedDataSetCollection, vtkPolyData)
-from vtkmodules.vtkParallelCore import vtkCommunicator, vtkMultiProcessController
+from vtkmodules.vtkParallelCore import vtkCommunicator
 
+import wl_testing as T  # noqa: E402
 
-def _abort_all(kind, value, tb):
-    import traceback
-    traceback.print_exception(kind, value, tb)
-    sys.stdout.flush()
-    os._exit(1)
-
-
-sys.excepthook = _abort_all
-import test_hostile_input as H  # noqa: E402  (loads the plugin)
-
-controller = vtkMultiProcessController.GetGlobalController()
-rank, ranks = controller.GetLocalProcessId(), controller.GetNumberOfProcesses()
-assert ranks == int(os.environ.get("WALLLOADS_RANKS", ranks))
+simple, controller, rank, ranks = T.mpi_start()
+import test_hostile_input as H  # noqa: E402
 last = ranks - 1
 
 

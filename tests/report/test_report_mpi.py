@@ -5,13 +5,10 @@ largest value of its unit in the file (components that are zero up to
 round-off, e.g. 1e-19 N beside forces of 1e-4 N, are not compared to
 themselves), apart from the creation time; the same files are made.  Cases: the demo bead
 (three blocks spread over the ranks), appended-mode channel walls (two
-blocks) and a .pvd time series.
-
-and an Exodus II series with side sets when this build's surface filters take
-ranks that hold no blocks (what that reader gives under MPI); with an earlier
-build the command refuses it under mpirun and says why.  CGNS is refused under
-mpirun (ParaView 5.11's CGNS reader loads no boundary patches on more than one
-rank), checked at the end."""
+blocks) and a .pvd time series.  Refused under mpirun, with the reason
+(checked at the end): CGNS (ParaView 5.11's CGNS reader loads no boundary
+patches on more than one rank) and Exodus II (its reader gives every block to
+the first rank and none to the others)."""
 import os
 
 import report_testing as R
@@ -23,10 +20,7 @@ cases = [os.path.join(R.SOURCE, "examples", "demo", "bead.vtm"),
          F.write_vtm_appended(F.channel_blocks(F.channel(nx=24, ny=12, nz=2)), os.path.join(W, "walls.vtm")),
          F.write_pvd([(t, F.channel_blocks(case, U)) for t, U in ((0.0, 0.3), (0.5, 0.4), (1.0, 0.5))],
                      os.path.join(W, "series.pvd"))]
-from wallloads import report  # noqa: E402
 exodus = F.write_exodus(os.path.join(W, "sidesets.exo"), case, times=[0.0, 0.5, 1.0], speeds=[0.3, 0.4, 0.5])
-if report.exodus_mpi_ok():
-    cases.append(exodus)
 args = ["--images", "no", "--viscosity", "1.5e-3", "--wall-velocity", "wall_velocity", "--reference-speed", "0.5", "--moment-centre", "0.1,0.2,0.3",
         "--distribution-axis", "1,0,0", "--bins", "7"] + cases
 serial, parallel = os.path.join(W, "serial"), os.path.join(W, "np3")
@@ -61,8 +55,7 @@ cgns = F.write_cgns(os.path.join(W, "patches.cgns"), case)
 code, _, err = R.run(["--images", "no", "-o", os.path.join(W, "cgns"), cgns], mpi=2)
 R.expect("CGNS on 2 ranks: exit 1 naming the reader's limit", code == 1
          and "loads no boundary patches when it runs on more than one rank" in err, err[-400:])
-if not report.exodus_mpi_ok():
-    code, _, err = R.run(["--images", "no", "-o", os.path.join(W, "exodus"), exodus], mpi=2)
-    R.expect("Exodus on 2 ranks with this build: exit 1, refused rather than left to hang", code == 1
-             and "cannot run on more than one rank" in err, err[-400:])
+code, _, err = R.run(["--images", "no", "-o", os.path.join(W, "exodus"), exodus], mpi=2)
+R.expect("Exodus on 2 ranks: exit 1 naming the reader's layout (every block on the first rank)", code == 1
+         and "cannot run on more than one rank" in err and "none to the others" in err, err[-400:])
 R.done(__file__)

@@ -262,10 +262,11 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
         raise cases.CaseError("case file %s: ParaView 5.11's CGNS reader loads no boundary patches when it "
                               "runs on more than one rank (here %d); report CGNS cases without mpirun, or "
                               "give the walls as a surface file" % (path, _ranks()))
-    if fmt.startswith("Exodus") and _ranks() > 1 and not exodus_mpi_ok():
-        raise cases.CaseError("case file %s: Exodus II cases cannot run on more than one rank (here %d) with "
-                              "this build (the reader leaves the other ranks without blocks, on which its "
-                              "Load Integration would hang); report them without mpirun" % (path, _ranks()))
+    if fmt.startswith("Exodus") and _ranks() > 1:
+        raise cases.CaseError("case file %s: Exodus II cases cannot run on more than one rank (here %d): "
+                              "ParaView 5.11's Exodus reader gives every block to the first rank and none to "
+                              "the others, and the loads per block need the same blocks on every rank; "
+                              "report Exodus cases without mpirun" % (path, _ranks()))
     walls, volumes, notes = cases.select_blocks(blocks, settings["walls.blocks"])
     composite = any(b.selector for b in blocks)
     if composite:
@@ -548,17 +549,6 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
     title = settings["output.title"] or name
     stage.write("report.html", htmlreport.case_page(title, record, rows, units, extras, images, stage.folder,
                                                     CAUTION))
-
-
-def exodus_mpi_ok():
-    """Whether this build's surface filters take ranks that hold no blocks (the
-    Exodus II reader's layout under MPI).  Load Integration gained that together
-    with its face-loop counter; an earlier build hangs there, so the command
-    refuses such runs.  WALLLOADS_EXODUS_MPI=1 forces a try."""
-    if os.environ.get("WALLLOADS_EXODUS_MPI"):
-        return True
-    from .WallLoadsFilters import vtkLoadIntegration
-    return hasattr(vtkLoadIntegration, "GetFaceLoops")
 
 
 def _ranks():

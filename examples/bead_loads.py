@@ -39,7 +39,7 @@ traction = simple.WallTraction(Input=reader)
 traction.Pressure = ["POINTS", "static_pressure"]
 traction.ReferencePressure = par["p_inf"]
 traction.ShearSource = "Wall shear stress array"
-traction.WallShearStress = ["CELLS", "wall_shear"]
+traction.ShearStressArray = ["CELLS", "wall_shear"]
 traction.Orientation = "Stored normals point into the wall"   # as the solver exported them
 traction.LoadDirection = [0.0, 0.0, 1.0]                       # settling axis
 traction.Density = rho
@@ -104,7 +104,7 @@ from_volume = simple.WallTraction(Input=shear)
 from_volume.Pressure = ["POINTS", "static_pressure"]
 from_volume.ReferencePressure = par["p_inf"]
 from_volume.ShearSource = "Wall shear stress array"
-from_volume.WallShearStress = ["CELLS", "Wall Shear Stress"]
+from_volume.ShearStressArray = ["CELLS", "Wall Shear Stress"]
 from_volume.Orientation = "Use Wall Normal array"   # decided by the adjacent fluid cell
 from_volume.LoadDirection = [0.0, 0.0, 1.0]
 volume_loads = simple.LoadIntegration(Input=from_volume)
@@ -181,7 +181,7 @@ series = exact["series"]
 s_reader = simple.PVDReader(FileName=os.path.join(HERE, "demo", "series", "bead_series.pvd"))
 s_traction = simple.WallTraction(Input=s_reader, Pressure=["POINTS", "static_pressure"],
                                  ReferencePressure=par["p_inf"], ShearSource="Wall shear stress array",
-                                 WallShearStress=["CELLS", "wall_shear"],
+                                 ShearStressArray=["CELLS", "wall_shear"],
                                  Orientation="Stored normals point into the wall",
                                  LoadDirection=[0.0, 0.0, 1.0], Density=rho)
 s_loads = simple.LoadIntegration(Input=s_traction, DragDirection=[0.0, 0.0, 1.0], LiftDirection=[1.0, 0.0, 0.0])

@@ -407,8 +407,8 @@ void ResolveAutomatic(AutomaticChoices& s, bool autoPressure, bool autoShear, bo
     AgreeOnChoice(g);
     if (w.Found())
     {
-      s.ShearSource = ShearWallShearStress;
-      s.WallShearStress = ArraySelection{ w.Name, w.OnPoints };
+      s.ShearSource = ShearFromStressArray;
+      s.ShearStressArray = ArraySelection{ w.Name, w.OnPoints };
       note << "Shear Source (Automatic): wall shear stress " << Where(w) << " array '" << w.Name
            << "'";
       if (!w.Others.empty())

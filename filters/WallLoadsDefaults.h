@@ -84,12 +84,12 @@ struct AutomaticChoices
 {
   ArraySelection& Pressure;
   int& ShearSource;
-  ArraySelection& WallShearStress;
+  ArraySelection& ShearStressArray;
   ArraySelection& VelocityGradient;
   int& Orientation;
 };
 /// vtkWallTraction's ShearSources and Orientations codes.
-constexpr int ShearNone = 0, ShearWallShearStress = 1, ShearVelocityGradient = 2;
+constexpr int ShearNone = 0, ShearFromStressArray = 1, ShearVelocityGradient = 2;
 constexpr int OrientationStoredIntoWall = 0, OrientationWallNormalArray = 2;
 
 /**

@@ -35,7 +35,7 @@ namespace traction
 /// Everything one execution needs, read from the properties once.
 struct Settings
 {
-  ArraySelection Pressure, DensityArray, WallShearStress, VelocityGradient, ViscosityArray,
+  ArraySelection Pressure, DensityArray, ShearStressArray, VelocityGradient, ViscosityArray,
     TurbulentViscosity;
   bool PressurePerUnitDensity = false;
   bool ShearPerUnitDensity = false;

@@ -38,7 +38,7 @@ vtkStandardNewMacro(vtkWallTraction);
 
 // The automatic choices (WallLoadsDefaults) speak this class's codes.
 static_assert(wallloads::ShearNone == vtkWallTraction::NO_SHEAR &&
-    wallloads::ShearWallShearStress == vtkWallTraction::WALL_SHEAR_STRESS &&
+    wallloads::ShearFromStressArray == vtkWallTraction::WALL_SHEAR_STRESS &&
     wallloads::ShearVelocityGradient == vtkWallTraction::VELOCITY_GRADIENT &&
     wallloads::OrientationStoredIntoWall == vtkWallTraction::STORED_INTO_WALL &&
     wallloads::OrientationWallNormalArray == vtkWallTraction::WALL_NORMAL_ARRAY,
@@ -129,7 +129,7 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
   if (!fetch(s.Pressure, 1, "Pressure", inputs.Pressure) ||
     !fetch(s.DensityArray, 1, "Density Array", inputs.Density) ||
     (s.ShearSource == vtkWallTraction::WALL_SHEAR_STRESS &&
-      !fetch(s.WallShearStress, 3, "Wall Shear Stress", inputs.Shear)) ||
+      !fetch(s.ShearStressArray, 3, "Wall Shear Stress", inputs.Shear)) ||
     (gradient && !fetch(s.VelocityGradient, 9, "Velocity Gradient", inputs.Gradient)) ||
     (gradient && !fetch(s.ViscosityArray, 1, "Viscosity Array", inputs.Viscosity)) ||
     (gradient &&
@@ -300,7 +300,7 @@ int vtkWallTraction::RequestData(
   Settings s;
   s.Pressure = SelectedArray(this, PRESSURE_ARRAY);
   s.DensityArray = SelectedArray(this, DENSITY_ARRAY);
-  s.WallShearStress = SelectedArray(this, WALL_SHEAR_STRESS_ARRAY);
+  s.ShearStressArray = SelectedArray(this, WALL_SHEAR_STRESS_ARRAY);
   s.VelocityGradient = SelectedArray(this, VELOCITY_GRADIENT_ARRAY);
   s.ViscosityArray = SelectedArray(this, VISCOSITY_ARRAY);
   s.TurbulentViscosity = SelectedArray(this, TURBULENT_VISCOSITY_ARRAY);
@@ -311,7 +311,7 @@ int vtkWallTraction::RequestData(
     s.Pressure = ArraySelection();
   }
   s.PressurePerUnitDensity = this->PressureKind == PER_UNIT_DENSITY;
-  s.ShearPerUnitDensity = this->WallShearStressKind == PER_UNIT_DENSITY;
+  s.ShearPerUnitDensity = this->ShearStressKind == PER_UNIT_DENSITY;
   s.Kinematic = this->ViscosityKind == PER_UNIT_DENSITY;
   s.ShearSource = this->ShearSource;
   s.Orientation = this->Orientation;
@@ -350,7 +350,7 @@ int vtkWallTraction::RequestData(
   }
   std::string notice, autoWarning;
   {
-    AutomaticChoices choices{ s.Pressure, s.ShearSource, s.WallShearStress, s.VelocityGradient,
+    AutomaticChoices choices{ s.Pressure, s.ShearSource, s.ShearStressArray, s.VelocityGradient,
       s.Orientation };
     ResolveAutomatic(choices, autoPressure, this->ShearSource == AUTOMATIC_SHEAR,
       this->Orientation == AUTOMATIC_ORIENTATION, surfaces, this->Viscosity, s.Kinematic, notice,
@@ -360,7 +360,7 @@ int vtkWallTraction::RequestData(
   {
     vtkWarningMacro(<< autoWarning);
   }
-  if (s.ShearSource == WALL_SHEAR_STRESS && !s.WallShearStress.Set())
+  if (s.ShearSource == WALL_SHEAR_STRESS && !s.ShearStressArray.Set())
   {
     vtkErrorMacro("Shear Source is 'Wall shear stress array' but no Wall Shear Stress array is "
                   "selected.");
@@ -556,7 +556,7 @@ void vtkWallTraction::PrintSelf(ostream& os, vtkIndent indent)
   os << indent << "ReferencePressure: " << this->ReferencePressure << "\n";
   os << indent << "Density: " << this->Density << "\n";
   os << indent << "ShearSource: " << this->ShearSource << "\n";
-  os << indent << "WallShearStressKind: " << this->WallShearStressKind << "\n";
+  os << indent << "ShearStressKind: " << this->ShearStressKind << "\n";
   os << indent << "Viscosity: " << this->Viscosity << "\n";
   os << indent << "ViscosityKind: " << this->ViscosityKind << "\n";
   os << indent << "IncludeNormalViscousStress: " << this->IncludeNormalViscousStress << "\n";

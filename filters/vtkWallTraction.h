@@ -160,8 +160,8 @@ public:
 
   ///@{
   /// Kind of the wall shear stress array: STATIC (Pa, default) or PER_UNIT_DENSITY.
-  vtkSetClampMacro(WallShearStressKind, int, STATIC, PER_UNIT_DENSITY);
-  vtkGetMacro(WallShearStressKind, int);
+  vtkSetClampMacro(ShearStressKind, int, STATIC, PER_UNIT_DENSITY);
+  vtkGetMacro(ShearStressKind, int);
   ///@}
 
   ///@{
@@ -259,7 +259,7 @@ protected:
   double ReferencePressure = 0.0;
   double Density = 1.0;
   int ShearSource = NO_SHEAR;
-  int WallShearStressKind = STATIC;
+  int ShearStressKind = STATIC;
   double Viscosity = 1.8e-5;
   int ViscosityKind = STATIC;
   bool IncludeNormalViscousStress = false;

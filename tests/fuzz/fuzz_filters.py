@@ -251,13 +251,13 @@ def wall_traction_settings(rng, data, clean):
     have = available(data)
     s = {"PressureKind": int(rng.integers(0, 2)), "ReferencePressure": float(rng.normal() * 1e5),
          "Density": float(rng.uniform(0.5, 1500.0)), "ShearSource": int(rng.integers(0, 3)),
-         "WallShearStressKind": int(rng.integers(0, 2)), "Viscosity": float(rng.uniform(1e-5, 1.0)),
+         "ShearStressKind": int(rng.integers(0, 2)), "Viscosity": float(rng.uniform(1e-5, 1.0)),
          "ViscosityKind": int(rng.integers(0, 2)), "IncludeNormalViscousStress": int(rng.integers(0, 2)),
          "Orientation": int(rng.integers(0, 2 if clean else 3)), "CheckOrientation": int(rng.integers(0, 2)),
          "LoadDirection": list(rng.normal(size=3)), "ReferenceSpeed": float(pick_speed(rng)),
          "PerFaceArrays": int(rng.integers(0, 2))}
     roles = [("Pressure", "pressure", 0.9), ("DensityArray", "density", 0.3),
-             ("WallShearStress", "wall_shear", 1.0), ("VelocityGradient", "velocity_gradient", 1.0),
+             ("ShearStressArray", "wall_shear", 1.0), ("VelocityGradient", "velocity_gradient", 1.0),
              ("ViscosityArray", "viscosity", 0.3), ("TurbulentViscosityArray", "eddy_viscosity", 0.3)]
     for prop, name, p in roles:
         if clean:
@@ -266,7 +266,7 @@ def wall_traction_settings(rng, data, clean):
         elif rng.random() < p:
             s[prop] = I.selection(rng, name, clean)
     if clean:
-        need = {1: "WallShearStress", 2: "VelocityGradient"}.get(s["ShearSource"])
+        need = {1: "ShearStressArray", 2: "VelocityGradient"}.get(s["ShearSource"])
         if need and need not in s:
             s["ShearSource"] = 0
     else:
@@ -281,7 +281,7 @@ def pick_speed(rng):
     return rng.choice([0.0, 1.0, 30.0])
 
 
-ARRAY_INDEX = {"Pressure": 0, "DensityArray": 1, "WallShearStress": 2, "VelocityGradient": 3,
+ARRAY_INDEX = {"Pressure": 0, "DensityArray": 1, "ShearStressArray": 2, "VelocityGradient": 3,
                "ViscosityArray": 4, "TurbulentViscosityArray": 5}
 
 

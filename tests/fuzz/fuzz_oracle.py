@@ -64,8 +64,8 @@ def wall_traction(ds, s):
             p = (rho * p if s["PressureKind"] == 1 else p) - s["ReferencePressure"]
         visc = np.zeros(3)
         if s["ShearSource"] == 1:
-            visc = face_value(ds, s["WallShearStress"][1], s["WallShearStress"][0], face, c, 3)
-            visc = visc * (rho if s["WallShearStressKind"] == 1 else 1.0)
+            visc = face_value(ds, s["ShearStressArray"][1], s["ShearStressArray"][0], face, c, 3)
+            visc = visc * (rho if s["ShearStressKind"] == 1 else 1.0)
         elif s["ShearSource"] == 2:
             G = face_value(ds, s["VelocityGradient"][1], s["VelocityGradient"][0], face, c, 9).reshape(3, 3)
             mu = s["Viscosity"]

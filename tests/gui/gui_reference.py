@@ -30,7 +30,7 @@ out = {}
 walls = simple.XMLMultiBlockDataReader(FileName=[os.path.join(DEMO, "bead.vtm")])
 wt = simple.WallTraction(Input=walls, Pressure=["POINTS", "static_pressure"], PressureKind="Static",
                          ReferencePressure=PAR["p_inf"], ShearSource="Wall shear stress array",
-                         WallShearStress=["CELLS", "wall_shear"],
+                         ShearStressArray=["CELLS", "wall_shear"],
                          Orientation="Stored normals point into the wall", LoadDirection=[0, 0, 1],
                          Density=PAR["density"], ReferenceSpeed=PAR["stream_velocity"][2])
 li = simple.LoadIntegration(Input=wt, DragDirection=[0, 0, 1], LiftDirection=[1, 0, 0],
@@ -44,7 +44,7 @@ sp.Method = "Near-wall difference"
 sp.Viscosity = PAR["dynamic_viscosity"]
 wt2 = simple.WallTraction(Input=sp, Pressure=["POINTS", "static_pressure"], PressureKind="Static",
                           ReferencePressure=PAR["p_inf"], ShearSource="Wall shear stress array",
-                          WallShearStress=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array",
+                          ShearStressArray=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array",
                           LoadDirection=[0, 0, 1])
 li2 = simple.LoadIntegration(Input=wt2, DragDirection=[0, 0, 1], LiftDirection=[1, 0, 0])
 out["volume"] = rows_of(li2)

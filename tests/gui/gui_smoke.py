@@ -28,7 +28,7 @@ try:
     wt.Pressure = ["POINTS", "static_pressure"]
     wt.ReferencePressure = exact["parameters"]["p_inf"]
     wt.ShearSource = "Wall shear stress array"
-    wt.WallShearStress = ["CELLS", "wall_shear"]
+    wt.ShearStressArray = ["CELLS", "wall_shear"]
     wt.LoadDirection = [0, 0, 1]
     view = simple.GetActiveViewOrCreate("RenderView")
     shown = simple.Show(wt, view)

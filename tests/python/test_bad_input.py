@@ -107,7 +107,7 @@ def check_missing_and_wrong_width():
          dict(Pressure=["CELLS", "p"], ShearSource="Velocity gradient", VelocityGradient=["CELLS", "u"]),
          ["Velocity Gradient", "'u'", "3 components", "9 expected"]),
         ("wall shear stress of 9 components",
-         dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array", WallShearStress=["CELLS", "G"]),
+         dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array", ShearStressArray=["CELLS", "G"]),
          ["Wall Shear Stress", "'G'", "9 components", "3 expected"]),
         ("density array of 3 components",
          dict(Pressure=["CELLS", "p"], ShearSource="None", PressureKind="Per unit density",
@@ -130,7 +130,7 @@ def check_missing_and_wrong_width():
         ("zero LoadDirection", dict(Pressure=["CELLS", "p"], LoadDirection=[0, 0, 0]), ["Load Direction"]),
         # (the panel preselects a 3-component array; a script can still unset it)
         ("shear source without an array", dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array",
-                                               WallShearStress=["CELLS", "None"]),
+                                               ShearStressArray=["CELLS", "None"]),
          ["Wall Shear Stress"]),
     ]:
         wt2 = simple.WallTraction(Input=src, Orientation=INTO_FLUID)
@@ -213,7 +213,7 @@ def mixed_scene():
     return mixed, clean, n_polys
 
 
-WT_PROPS = dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array", WallShearStress=["CELLS", "wss"],
+WT_PROPS = dict(Pressure=["CELLS", "p"], ShearSource="Wall shear stress array", ShearStressArray=["CELLS", "wss"],
                 Orientation=INTO_FLUID, ReferenceSpeed=20.0, ReferencePressure=90.0)
 LI_PROPS = dict(MomentCentre=[0.5, -0.5, 0.1], ReferenceSpeed=20.0)
 

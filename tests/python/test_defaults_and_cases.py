@@ -58,13 +58,13 @@ def check_automatic_pressure():
     expect("Pressure and Shear Source default to Automatic",
            wt.Pressure[1] == "Automatic" and wt.ShearSource == "Automatic", "%s %s" % (wt.Pressure, wt.ShearSource))
     explicit = total_force(src, Pressure=["CELLS", "p"], ShearSource="Wall shear stress array",
-                           WallShearStress=["CELLS", "wall_shear"])
+                           ShearStressArray=["CELLS", "wall_shear"])
     same_totals("automatic takes cell 'p' and 'wall_shear' (== explicit)", auto, explicit)
     # The choice is discriminating: the other candidates give other loads.
     for label, other in (("point 'p'", ["POINTS", "p"]), ("'temperature'", ["CELLS", "temperature"]),
                          ("'zone_id'", ["CELLS", "zone_id"])):
         rows = total_force(src, Pressure=other, ShearSource="Wall shear stress array",
-                           WallShearStress=["CELLS", "wall_shear"])
+                           ShearStressArray=["CELLS", "wall_shear"])
         expect("... and not %s (other loads)" % label,
                np.max(np.abs(rows["Total"]["Force"] - auto["Total"]["Force"])) > 1e-6 * np.max(np.abs(auto["Total"]["Force"])))
 
@@ -105,7 +105,7 @@ def check_automatic_shear_and_orientation():
     auto = loads({}, source=src)[2]
     same_totals("'Wall Shear Stress' preferred to 'wall_shear' and to the gradient", auto,
                 total_force(src, Pressure=["CELLS", "p"], ShearSource="Wall shear stress array",
-                            WallShearStress=["CELLS", "Wall Shear Stress"]))
+                            ShearStressArray=["CELLS", "Wall Shear Stress"]))
     data2 = sphere(cell={"p": RNG.normal(size=N), "velocity_gradient": grad, "velocity": RNG.normal(size=(N, 3))})
     src2 = T.producer(data2)
     auto2 = loads(dict(Viscosity=1.3e-3), source=src2)[2]

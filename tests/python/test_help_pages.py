@@ -38,11 +38,11 @@ T.expect("Load Integration page: every table column with its unit", not missing,
 T.expect("Load Integration page: the summary's column names with units",
          all(s in li for s in ("Boundary", "Drag [N]", "Wetted Area [m^2]", "Dynamic Pressure [Pa]")))
 T.expect("no 'must contain' restriction for the optional arrays", "must contain" not in wt + li)
-defaults = re.findall(r"<code>(Pressure|DensityArray|RegionArray|WallShearStress)</code></td><td>.*?</td><td>([^<]*)</td>",
+defaults = re.findall(r"<code>(Pressure|DensityArray|RegionArray|ShearStressArray)</code></td><td>.*?</td><td>([^<]*)</td>",
                       wt + li)
 T.expect("array pickers show their real default",
          dict(defaults) == {"Pressure": "Automatic", "DensityArray": "None", "RegionArray": "None",
-                            "WallShearStress": "the first 3-component floating-point array (the only one, when there is one)"},
+                            "ShearStressArray": "the first 3-component floating-point array (the only one, when there is one)"},
          str(defaults))
 sp = open(os.path.join(HELP, "filters.ShearProjection.html")).read()
 missing = [(n, u) for n, u, c, m in cols["WALLLOADS_SHEAR_ARRAYS"] if row_of(sp, n) != (u or "-")]

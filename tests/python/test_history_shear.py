@@ -51,7 +51,7 @@ builtins.wallloads_history_mesh = mesh
 def loads_chain(volume):
     sp = simple.ShearProjection(Input=volume, Velocity=["CELLS", "velocity"])
     wt = simple.WallTraction(Input=sp, PressureKind="None", ShearSource="Wall shear stress array",
-                             WallShearStress=["CELLS", "Wall Shear Stress"])
+                             ShearStressArray=["CELLS", "Wall Shear Stress"])
     li = simple.LoadIntegration(Input=wt)
     lh = simple.LoadHistory(Input=simple.OutputPort(li, 1))
     lh.UpdatePipeline()

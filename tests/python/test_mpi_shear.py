@@ -66,7 +66,7 @@ sp.Viscosity = MU
 warnings = []
 sp.GetClientSideObject().AddObserver("WarningEvent", lambda o, e: warnings.append(e))
 wt = simple.WallTraction(Input=sp, ShearSource="Wall shear stress array",
-                         WallShearStress=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
+                         ShearStressArray=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
 wt.Pressure = ["CELLS", "None"]
 li = simple.LoadIntegration(Input=wt)
 li.UpdatePipeline()
@@ -135,7 +135,7 @@ else:
     ghost_vol = vtkUnstructuredGrid()
 sp = simple.ShearProjection(Input=T.producer(ghost_vol), Velocity=["CELLS", "velocity"], Viscosity=MU)
 wt = simple.WallTraction(Input=sp, ShearSource="Wall shear stress array", Pressure=["CELLS", "None"],
-                         WallShearStress=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
+                         ShearStressArray=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
 li = simple.LoadIntegration(Input=wt)
 li.UpdatePipeline()
 out = li.GetClientSideObject().GetOutputDataObject(0)

@@ -249,7 +249,7 @@ run_case(
     "C: point p, per-unit-density wall shear stress",
     {"pp": pp}, {"wss": wss},
     dict(Pressure=["POINTS", "pp"], Density=rho0, ShearSource="Wall shear stress array",
-         WallShearStress=["CELLS", "wss"], WallShearStressKind="Per unit density",
+         ShearStressArray=["CELLS", "wss"], ShearStressKind="Per unit density",
          LoadDirection=ld, ReferenceSpeed=U),
     LI, exp_c)
 

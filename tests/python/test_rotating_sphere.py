@@ -77,7 +77,7 @@ def loads(pd, path, centres):
     wt.Pressure = ["CELLS", "p"]
     if path == "wss":
         wt.ShearSource = "Wall shear stress array"
-        wt.WallShearStress = ["CELLS", "wss"]
+        wt.ShearStressArray = ["CELLS", "wss"]
     else:
         wt.ShearSource = "Velocity gradient"
         wt.VelocityGradient = ["CELLS", "grad"]

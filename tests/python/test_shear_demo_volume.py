@@ -118,7 +118,7 @@ def loads_pipeline(volume, walls, method):
     wt.Pressure = ["POINTS", "static_pressure"]
     wt.ReferencePressure = P_INF
     wt.ShearSource = "Wall shear stress array"
-    wt.WallShearStress = ["CELLS", "Wall Shear Stress"]
+    wt.ShearStressArray = ["CELLS", "Wall Shear Stress"]
     wt.Orientation = "Use Wall Normal array"
     wt.LoadDirection = [0.0, 0.0, 1.0]
     wt.Density = RHO
@@ -221,7 +221,7 @@ wt_s = simple.WallTraction(Input=bead)
 wt_s.Pressure = ["POINTS", "static_pressure"]
 wt_s.ReferencePressure = P_INF
 wt_s.ShearSource = "Wall shear stress array"
-wt_s.WallShearStress = ["CELLS", "wall_shear"]
+wt_s.ShearStressArray = ["CELLS", "wall_shear"]
 wt_s.Orientation = "Stored normals point into the wall"
 li_s = simple.LoadIntegration(Input=wt_s)
 li_s.MomentCentre = [0.0, 0.0, 0.0]

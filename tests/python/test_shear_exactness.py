@@ -91,7 +91,7 @@ def shear(vol, walls, method, wall_velocity=None, gradient=None, wall_velocity_o
     res = {k: T.cell_array(out, k).copy() for k in ("Wall Shear Stress", "Wall Normal", "Wall Distance")}
     wt = simple.WallTraction(Input=sp)
     wt.ShearSource = "Wall shear stress array"
-    wt.WallShearStress = ["CELLS", "Wall Shear Stress"]
+    wt.ShearStressArray = ["CELLS", "Wall Shear Stress"]
     wt.Orientation = "Use Wall Normal array"
     li = simple.LoadIntegration(Input=wt)
     lo = T.output_of(li, 0)

@@ -191,7 +191,7 @@ def run_level(kind, n_radial, n_around=None, chain=True, identities=True):
     wt = li = None
     if chain:
         wt = simple.WallTraction(Input=sp, Pressure=["CELLS", "None"], ShearSource="Wall shear stress array",
-                                 WallShearStress=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
+                                 ShearStressArray=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
         li = simple.LoadIntegration(Input=wt)
     tag = "%s n_r=%d n_th=%d" % (kind, n_radial, sc["n_around"])
     xP = sc["C"][sc["cell"]]

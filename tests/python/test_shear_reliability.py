@@ -153,7 +153,7 @@ def check_ghost_layer():
     src = T.producer(vol)
     sp, cap, out = run(src)
     wt = simple.WallTraction(Input=sp, Pressure=["CELLS", "None"], ShearSource="Wall shear stress array",
-                             WallShearStress=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
+                             ShearStressArray=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
     li = simple.LoadIntegration(Input=wt)
     area = T.field(T.output_of(li, 0), "Area")
     # Owned part: x in [0, 2]: its outer boundary without the face x = 2:

@@ -246,7 +246,7 @@ def check_cylinder_chain_and_gradients(measured):
                 sp.VelocityGradient = ["CELLS", grad]
             cap = T.Capture(sp)
             wt = simple.WallTraction(Input=sp, Pressure=["CELLS", "None"], ShearSource="Wall shear stress array",
-                                     WallShearStress=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
+                                     ShearStressArray=["CELLS", "Wall Shear Stress"], Orientation="Use Wall Normal array")
             li = simple.LoadIntegration(Input=wt)
             tot = T.output_of(li, 0)
             F = T.field(tot, "Viscous Force")

@@ -19,7 +19,7 @@ the filter uses). Walls: the inner uv_sphere as its own polydata (faces
 stored into the wall, as solvers export them; no shared point ids), with the
 exact cell pressure at the radial projection of each face centroid.
 Pipeline: Shear Projection -> Wall Traction (ShearSource 'Wall shear stress
-array', WallShearStress 'Wall Shear Stress', Orientation 'Use Wall Normal
+array', ShearStressArray 'Wall Shear Stress', Orientation 'Use Wall Normal
 array', Pressure the wall's cell 'p') -> Load Integration over the inner wall.
 
 Levels n_polar = 8, 16, 32, 64. Expected orders (our analysis):
@@ -164,7 +164,7 @@ def run(sc, path, with_loads=True):
         wt = simple.WallTraction(Input=sp)
         wt.Pressure = ["CELLS", "p"]
         wt.ShearSource = "Wall shear stress array"
-        wt.WallShearStress = ["CELLS", "Wall Shear Stress"]
+        wt.ShearStressArray = ["CELLS", "Wall Shear Stress"]
         wt.Orientation = "Use Wall Normal array"
         li = simple.LoadIntegration(Input=wt)
         li.MomentCentre = list(CENTRE)

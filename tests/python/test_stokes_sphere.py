@@ -101,7 +101,7 @@ def loads(pd, path, orientation="Stored normals point into the fluid"):
     if path == "a":
         wt.Pressure = ["CELLS", "p"]
         wt.ShearSource = "Wall shear stress array"
-        wt.WallShearStress = ["CELLS", "wss"]
+        wt.ShearStressArray = ["CELLS", "wss"]
     else:
         wt.Pressure = ["CELLS", "p"] if path == "b" else ["POINTS", "p"]
         wt.ShearSource = "Velocity gradient"

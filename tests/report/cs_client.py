@@ -19,7 +19,7 @@ if mode == "autoloaded":
 simple = batch.load_plugin()
 reader = simple.XMLMultiBlockDataReader(FileName=[case])
 wt = simple.WallTraction(Input=reader, Pressure=["POINTS", "static_pressure"], ReferencePressure=1.0e5,
-                         ShearSource="Wall shear stress array", WallShearStress=["CELLS", "wall_shear"])
+                         ShearSource="Wall shear stress array", ShearStressArray=["CELLS", "wall_shear"])
 li = simple.LoadIntegration(Input=wt)
 rows = batch.load_table(li)
 print("REGIONS", ",".join(sorted(rows)))

@@ -72,7 +72,7 @@ builtin = subprocess.run(["pvpython", "-c",
                           "r = simple.XMLMultiBlockDataReader(FileName=[%r])\n"
                           "wt = simple.WallTraction(Input=r, Pressure=['POINTS', 'static_pressure'], "
                           "ReferencePressure=1.0e5, ShearSource='Wall shear stress array', "
-                          "WallShearStress=['CELLS', 'wall_shear'])\n"
+                          "ShearStressArray=['CELLS', 'wall_shear'])\n"
                           "print('TOTAL_FORCE %%r %%r %%r' %% batch.load_table(simple.LoadIntegration(Input=wt))"
                           "['Total']['Force'])\n" % DEMO], capture_output=True, text=True, env=BASE, timeout=120)
 expected = [float(x) for x in [l for l in builtin.stdout.splitlines() if l.startswith("TOTAL_FORCE")][0].split()[1:]]

@@ -402,7 +402,7 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
         surface_in = sp
     wt = simple.WallTraction(Input=surface_in)
     made.append(wt)
-    _no_arrays(wt, ("DensityArray", "ViscosityArray", "TurbulentViscosityArray", "WallShearStress",
+    _no_arrays(wt, ("DensityArray", "ViscosityArray", "TurbulentViscosityArray", "ShearStressArray",
                     "VelocityGradient"))
     wt.Pressure = list(pressure) if pressure else ["POINTS", "None"]
     wt.PressureKind = KIND[s["pressure.kind"]]
@@ -419,15 +419,15 @@ def _run_case(simple, settings, path, name, stage, progress, result, made, study
             wt.TurbulentViscosityArray = list(extra["fluid.turbulent_viscosity_array"])
     if source == "array":
         wt.ShearSource = SHEAR_SOURCE["array"]
-        wt.WallShearStress = list(shear_arr)
-        wt.WallShearStressKind = KIND[s["shear.kind"]]
+        wt.ShearStressArray = list(shear_arr)
+        wt.ShearStressKind = KIND[s["shear.kind"]]
     elif source == "gradient":
         wt.ShearSource = SHEAR_SOURCE["gradient"]
         wt.VelocityGradient = list(gradient)
     elif source == "volume":
         wt.ShearSource = SHEAR_SOURCE["array"]
-        wt.WallShearStress = ["CELLS", "Wall Shear Stress"]
-        wt.WallShearStressKind = 0
+        wt.ShearStressArray = ["CELLS", "Wall Shear Stress"]
+        wt.ShearStressKind = 0
     else:
         wt.ShearSource = SHEAR_SOURCE["none"]
     wt.IncludeNormalViscousStress = int(s["shear.include_normal_stress"])

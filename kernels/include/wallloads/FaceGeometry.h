@@ -70,95 +70,12 @@ struct FaceFrame
   T Centroid[3]; ///< area centroid
 };
 
-/**
- * Compute the frame of the polygon whose vertex `k` has coordinates
- * `points[3*ids[k] + c]`. `P` is the coordinate type (float or double), `I`
- * the index type. A face whose area is not above `relativeAreaTolerance`
- * times its squared size (largest vertex distance from vertex 0) is ZeroArea.
- */
 template <typename T, typename P>
 inline void Relative(const P* p, const T o[3], T out[3])
 {
   out[0] = T(p[0]) - o[0];
   out[1] = T(p[1]) - o[1];
   out[2] = T(p[2]) - o[2];
-}
-
-template <typename T, typename P, typename I>
-FaceStatus ComputeFaceFrame(const P* points, const I* ids, int numIds, FaceFrame<T>& frame,
-  T relativeAreaTolerance = T(1e-14))
-{
-  if (numIds < 3)
-  {
-    return FaceStatus::TooFewPoints;
-  }
-  const P* p0 = points + 3 * ids[0];
-  const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
-  // Pass 1: the Newell area vector as the sum of the fan triangles (v0, vk, vk+1).
-  T a[3] = { 0, 0, 0 }; // twice the area vector
-  T size2 = 0;
-  T prev[3];
-  Relative(points + 3 * ids[1], o, prev);
-  size2 = Dot(prev, prev);
-  for (int k = 2; k < numIds; ++k)
-  {
-    T cur[3];
-    Relative(points + 3 * ids[k], o, cur);
-    T c[3];
-    Cross(prev, cur, c);
-    a[0] += c[0];
-    a[1] += c[1];
-    a[2] += c[2];
-    const T d2 = Dot(cur, cur);
-    size2 = d2 > size2 ? d2 : size2;
-    prev[0] = cur[0];
-    prev[1] = cur[1];
-    prev[2] = cur[2];
-  }
-  if (!AllFinite(a, 3) || !AllFinite(o, 3))
-  {
-    return FaceStatus::NonFinite;
-  }
-  const T twiceArea = Norm(a);
-  if (!(twiceArea > T(2) * relativeAreaTolerance * size2))
-  {
-    return FaceStatus::ZeroArea;
-  }
-  const T inv = T(1) / twiceArea;
-  const T nhat[3] = { a[0] * inv, a[1] * inv, a[2] * inv };
-  // Pass 2: centroid as the average of the fan triangles' centroids weighted
-  // by their signed area projected on the face normal (exact when planar).
-  T cw[3] = { 0, 0, 0 };
-  T w = 0;
-  Relative(points + 3 * ids[1], o, prev);
-  for (int k = 2; k < numIds; ++k)
-  {
-    T cur[3];
-    Relative(points + 3 * ids[k], o, cur);
-    T c[3];
-    Cross(prev, cur, c);
-    const T wt = Dot(c, nhat);
-    w += wt;
-    cw[0] += wt * (prev[0] + cur[0]);
-    cw[1] += wt * (prev[1] + cur[1]);
-    cw[2] += wt * (prev[2] + cur[2]);
-    prev[0] = cur[0];
-    prev[1] = cur[1];
-    prev[2] = cur[2];
-  }
-  frame.AreaVector[0] = T(0.5) * a[0];
-  frame.AreaVector[1] = T(0.5) * a[1];
-  frame.AreaVector[2] = T(0.5) * a[2];
-  frame.Area = T(0.5) * twiceArea;
-  frame.Normal[0] = nhat[0];
-  frame.Normal[1] = nhat[1];
-  frame.Normal[2] = nhat[2];
-  // Triangle centroid relative to v0 is (vk + vk+1)/3; w is twice the area.
-  const T invW = T(1) / (T(3) * w);
-  frame.Centroid[0] = o[0] + cw[0] * invW;
-  frame.Centroid[1] = o[1] + cw[1] * invW;
-  frame.Centroid[2] = o[2] + cw[2] * invW;
-  return FaceStatus::Ok;
 }
 
 namespace detail
@@ -302,6 +219,23 @@ WALLLOADS_FACE_INLINE FaceStatus ComputeFaceFrameFast(const P* points, const I* 
       return numIds < 3 ? FaceStatus::TooFewPoints
                         : detail::FaceFramePass<0>(points, ids, numIds, frame, relativeAreaTolerance);
   }
+}
+
+/**
+ * Compute the frame of the polygon whose vertex `k` has coordinates
+ * `points[3*ids[k] + c]`. `P` is the coordinate type (float or double), `I`
+ * the index type. A face whose area is not above `relativeAreaTolerance`
+ * times its squared size (largest vertex distance from vertex 0) is ZeroArea.
+ */
+template <typename T, typename P, typename I>
+FaceStatus ComputeFaceFrame(const P* points, const I* ids, int numIds, FaceFrame<T>& frame,
+  T relativeAreaTolerance = T(1e-14))
+{
+  // Pass 1 (Newell area vector of the fan triangles, tolerance, normal) and
+  // pass 2 (centroid of the fan weighted by the triangles' area along the
+  // normal, exact when planar): one implementation, shared with the face loops.
+  return numIds < 3 ? FaceStatus::TooFewPoints
+                    : detail::FaceFramePass<0>(points, ids, numIds, frame, relativeAreaTolerance);
 }
 
 } // namespace wallloads

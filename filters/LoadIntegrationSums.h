@@ -225,17 +225,19 @@ struct SumLoop
       return;
     }
 #endif
-    this->DirectFaces(begin, end);
+    this->DirectFaces<false>(begin, end);
   }
 
 #if WALLLOADS_AVX2_CLONE
-  /// The same loop compiled for AVX2 (FaceGeometry.h): the same values.
+  /// The same loop compiled for AVX2, taking four faces at a time where it
+  /// can (Lanes.h).
   WALLLOADS_TARGET_AVX2 void DirectAvx2(vtkIdType begin, vtkIdType end)
   {
-    this->DirectFaces(begin, end);
+    this->DirectFaces<WALLLOADS_LANES != 0>(begin, end);
   }
 #endif
 
+  template <bool UseLanes>
   WALLLOADS_FACE_INLINE void DirectFaces(vtkIdType begin, vtkIdType end)
   {
     Sums& sums = this->Local.Local()[static_cast<std::size_t>(In.FixedRegion)];
@@ -245,18 +247,20 @@ struct SumLoop
     const double* forceP = static_cast<const double*>(In.ForceP.Data);
     const double* forceV = static_cast<const double*>(In.ForceV.Data);
     const double* areas = static_cast<const double*>(In.Area.Data);
-    for (vtkIdType c = begin; c < end; ++c)
-    {
-      if (!IsCountedCell(In.Ghosts, c))
+    const unsigned char* ghosts = In.Ghosts;
+    const FaceTopology<I> topo = this->Topo;
+    // One face by the scalar kernels, summed in face order.
+    auto oneFace = [&](vtkIdType c) {
+      if (!IsCountedCell(ghosts, c))
       {
-        continue;
+        return;
       }
       I buffer[4];
       const I* ids = nullptr;
-      const int n = Topo.Corners(c, ids, buffer);
+      const int n = topo.Corners(c, ids, buffer);
       if (n == 0)
       {
-        continue;
+        return;
       }
       const double* fp = forceP + 3 * c;
       const double* fv = forceV + 3 * c;
@@ -266,14 +270,134 @@ struct SumLoop
         ComputeFaceFrameFast<double>(points, ids, n, frame) != FaceStatus::Ok)
       {
         acc.AddSkipped();
-        continue;
+        return;
       }
       Lane2 v[SlotSums::Lanes];
       FaceSlots(area, frame.Centroid, this->R0, fp, fv, v);
       acc.AddAll(v);
+    };
+#if WALLLOADS_LANES
+    if constexpr (UseLanes)
+    {
+      // Faces c + j are summed in lane j (a split of the faces like the
+      // threads' one, merged the same way).
+      LaneSums lanes;
+      vtkIdType c = begin;
+      for (; c + 4 <= end; c += 4)
+      {
+        I buffer[4][4];
+        const I* ids[4];
+        const int n = topo.Corners(c, ids[0], buffer[0]);
+        bool same = n == 3 || n == 4;
+        for (int j = 0; j < 4; ++j)
+        {
+          same = same && IsCountedCell(ghosts, c + j) &&
+            (j == 0 || topo.Corners(c + j, ids[j], buffer[j]) == n);
+        }
+        const bool done =
+          same && (n == 3 ? this->Quartet<3>(c, ids, points, lanes) : this->Quartet<4>(c, ids, points, lanes));
+        if (!done)
+        {
+          for (int j = 0; j < 4; ++j)
+          {
+            oneFace(c + j);
+          }
+        }
+      }
+      for (; c < end; ++c)
+      {
+        oneFace(c);
+      }
+      acc.Store(sums);
+      lanes.MergeInto(sums);
+      return;
+    }
+#endif
+    for (vtkIdType c = begin; c < end; ++c)
+    {
+      oneFace(c);
     }
     acc.Store(sums);
   }
+
+#if WALLLOADS_LANES
+  /// Compensated sums of the slots with one face per lane.
+  struct LaneSums
+  {
+    CompensatedSum<Lanes4> Slot[NumLoadSlots];
+
+    /// Each lane's sums merged into `to` in lane order (as thread sums are).
+    void MergeInto(Sums& to) const
+    {
+      for (int j = 0; j < 4; ++j)
+      {
+        Sums lane;
+        for (std::size_t k = 0; k < NumLoadSlots; ++k)
+        {
+          lane.Sums.Terms[k].Sum = this->Slot[k].Sum[j];
+          lane.Sums.Terms[k].Carry = this->Slot[k].Carry[j];
+        }
+        to.Merge(lane);
+      }
+    }
+  };
+
+  /**
+   * Faces c..c+3, all of N corners and counted, by the same kernels on
+   * Lanes4 (each face's slot values are the scalar ones); false, with
+   * nothing added, when any of the four would be skipped.
+   */
+  template <int N>
+  WALLLOADS_FACE_INLINE bool Quartet(
+    vtkIdType c, const I* const ids[4], const P* points, LaneSums& lanes) const
+  {
+    const double* fpData = static_cast<const double*>(In.ForceP.Data) + 3 * c;
+    const double* fvData = static_cast<const double*>(In.ForceV.Data) + 3 * c;
+    const double* areaData = static_cast<const double*>(In.Area.Data) + c;
+    Lanes4 fp[3];
+    Lanes4 fv[3];
+    for (int k = 0; k < 3; ++k)
+    {
+      fp[k] = Lanes4::Of(fpData[k], fpData[3 + k], fpData[6 + k], fpData[9 + k]);
+      fv[k] = Lanes4::Of(fvData[k], fvData[3 + k], fvData[6 + k], fvData[9 + k]);
+    }
+    const Lanes4 area = Lanes4::Of(areaData[0], areaData[1], areaData[2], areaData[3]);
+    if (!AllLanes(FiniteLanes(fp[0]) & FiniteLanes(fp[1]) & FiniteLanes(fp[2]) &
+          FiniteLanes(fv[0]) & FiniteLanes(fv[1]) & FiniteLanes(fv[2]) & FiniteLanes(area)))
+    {
+      return false;
+    }
+    const FourFaces<N, P, I> faces(points, ids);
+    Lanes4 normal[3];
+    Lanes4 faceArea;
+    Lanes4 a[3];
+    if (!FaceNormalLanes(faces, normal, faceArea, a))
+    {
+      return false;
+    }
+    Lanes4 centroid[3];
+    FaceCentroidLanes(faces, normal, centroid);
+    // LoadSums::AddFace's values (FaceSlots), four faces at once.
+    const Lanes4 arm[3] = { centroid[0] - this->R0[0], centroid[1] - this->R0[1],
+      centroid[2] - this->R0[2] };
+    Lanes4 mp[3];
+    Lanes4 mv[3];
+    Cross(arm, fp, mp);
+    Cross(arm, fv, mv);
+    const Lanes4 f[3] = { fp[0] + fv[0], fp[1] + fv[1], fp[2] + fv[2] };
+    lanes.Slot[AreaSlot].Add(area);
+    for (int k = 0; k < 3; ++k)
+    {
+      lanes.Slot[PressureForceSlot + k].Add(fp[k]);
+      lanes.Slot[ViscousForceSlot + k].Add(fv[k]);
+      lanes.Slot[PressureMomentSlot + k].Add(mp[k]);
+      lanes.Slot[ViscousMomentSlot + k].Add(mv[k]);
+    }
+    lanes.Slot[FaceCountSlot].Add(Lanes4(1.0));
+    lanes.Slot[ForceMagnitudeSlot].Add(Norm(f));
+    return true;
+  }
+#endif
 
   void Reduce() {}
 };

@@ -173,14 +173,23 @@ struct FaceLoop
       return;
     }
 #endif
-    this->Faces(begin, end);
+    this->Faces<false>(begin, end);
   }
 
 #if WALLLOADS_AVX2_CLONE
-  /// The same loop compiled for AVX2 (FaceGeometry.h): the same values.
-  WALLLOADS_TARGET_AVX2 void FacesAvx2(vtkIdType begin, vtkIdType end) { this->Faces(begin, end); }
+  /// The same loop compiled for AVX2 (Lanes.h), taking four faces at a time
+  /// where it can: the same values.
+  WALLLOADS_TARGET_AVX2 void FacesAvx2(vtkIdType begin, vtkIdType end)
+  {
+    this->Faces<WALLLOADS_LANES != 0>(begin, end);
+  }
 #endif
 
+  /// Whether this loop has a four-face path: double cell arrays, the
+  /// viscous source and the array set fixed at compile time.
+  static constexpr bool HasLanes = WALLLOADS_LANES != 0 && Direct && Shear >= 0 && Arrays >= 0;
+
+  template <bool UseLanes>
   WALLLOADS_FACE_INLINE void Faces(vtkIdType begin, vtkIdType end)
   {
     ThreadTally& tally = this->Local.Local();
@@ -202,8 +211,8 @@ struct FaceLoop
     const double dynamicPressure = S.DynamicPressure;
     const double loadDirection[3] = { S.LoadDirection[0], S.LoadDirection[1], S.LoadDirection[2] };
     const P* points = static_cast<const P*>(in.Points.Data);
-    for (vtkIdType c = begin; c < end; ++c)
-    {
+    // One face by the scalar kernels: the reference for every value.
+    auto oneFace = [&](vtkIdType c) {
       const bool counted = IsCountedCell(in.Ghosts, c);
       I buffer[4];
       const I* ids = nullptr;
@@ -216,7 +225,7 @@ struct FaceLoop
         }
         this->MarkSkipped(c);
         tally.NonSurface += counted;
-        continue;
+        return;
       }
       FaceFrame<double> frame; // normal and area only (no centroid here)
       const FaceStatus status = ComputeFaceNormal<double>(points, ids, n, frame.Normal, frame.Area);
@@ -228,7 +237,7 @@ struct FaceLoop
       {
         this->MarkSkipped(c);
         (status == FaceStatus::NonFinite ? tally.NonFinite : tally.Degenerate) += counted;
-        continue;
+        return;
       }
       double sign = orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
       if (orientation == vtkWallTraction::WALL_NORMAL_ARRAY)
@@ -305,7 +314,7 @@ struct FaceLoop
       {
         this->MarkSkipped(c);
         tally.NonFinite += counted;
-        continue;
+        return;
       }
       const double A = frame.Area;
       out.Area[c] = A;
@@ -341,8 +350,199 @@ struct FaceLoop
         tally.Area.Add(A);
         ++tally.Faces;
       }
+    };
+#if WALLLOADS_LANES
+    if constexpr (UseLanes && HasLanes)
+    {
+      if (orientation != vtkWallTraction::WALL_NORMAL_ARRAY)
+      {
+        const Lanes4 lanesLoadDirection[3] = { Lanes4(loadDirection[0]), Lanes4(loadDirection[1]),
+          Lanes4(loadDirection[2]) };
+        vtkIdType c = begin;
+        for (; c + 4 <= end; c += 4)
+        {
+          I buffer[4][4];
+          const I* ids[4];
+          const int n = topo.Corners(c, ids[0], buffer[0]);
+          bool same = n == 3 || n == 4;
+          for (int j = 1; j < 4; ++j)
+          {
+            same = (topo.Corners(c + j, ids[j], buffer[j]) == n) && same;
+          }
+          const bool done = same &&
+            (n == 3 ? this->Quartet<3>(c, ids, tally, points, lanesLoadDirection)
+                    : this->Quartet<4>(c, ids, tally, points, lanesLoadDirection));
+          if (!done)
+          {
+            for (int j = 0; j < 4; ++j)
+            {
+              oneFace(c + j);
+            }
+          }
+        }
+        for (; c < end; ++c)
+        {
+          oneFace(c);
+        }
+        return;
+      }
+    }
+#endif
+    for (vtkIdType c = begin; c < end; ++c)
+    {
+      oneFace(c);
     }
   }
+#if WALLLOADS_LANES
+  /**
+   * Faces c..c+3, all of N corners, by the same kernels on Lanes4: each face
+   * gets the values and tallies the scalar path gives it. False, with nothing
+   * written, when any of the four leaves the common case (invalid geometry,
+   * a non-finite value): the caller then takes them one by one.
+   */
+  template <int N>
+  WALLLOADS_FACE_INLINE bool Quartet(vtkIdType c, const I* const ids[4], ThreadTally& tally,
+    const P* points, const Lanes4 loadDirection[3]) const
+  {
+    const Outputs& out = this->Out;
+    const Inputs& in = this->In;
+    const FourFaces<N, P, I> faces(points, ids);
+    Lanes4 unit[3];
+    Lanes4 A;
+    Lanes4 a[3];
+    if (!FaceNormalLanes(faces, unit, A, a))
+    {
+      return false;
+    }
+    auto gather = [c](const ArrayView& v, int k) {
+      const double* d = static_cast<const double*>(v.Data) + c * v.NumComponents + k;
+      const int w = v.NumComponents;
+      return Lanes4::Of(d[0], d[w], d[2 * w], d[3 * w]);
+    };
+    const double sign = S.Orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
+    const Lanes4 normal[3] = { sign * unit[0], sign * unit[1], sign * unit[2] };
+    Lanes4 rho(S.Density);
+    if (in.Density.Valid())
+    {
+      rho = gather(in.Density, 0);
+    }
+    FaceTractionInput<Lanes4> tin;
+    tin.Normal = normal;
+    tin.IncludeNormalViscousStress = S.IncludeNormal;
+    tin.WantShearMagnitude = out.Cf != nullptr;
+    if (in.Pressure.Valid())
+    {
+      const Lanes4 p = gather(in.Pressure, 0);
+      tin.GaugePressure = (S.PressurePerUnitDensity ? rho * p : p) - S.ReferencePressure;
+    }
+    else
+    {
+      tin.GaugePressure = Lanes4(0.0);
+    }
+    Lanes4 shear[3];
+    Lanes4 gradient[9];
+    if (Shear == vtkWallTraction::WALL_SHEAR_STRESS)
+    {
+      const Lanes4 f = S.ShearPerUnitDensity ? rho : Lanes4(1.0);
+      for (int k = 0; k < 3; ++k)
+      {
+        shear[k] = f * gather(in.Shear, k);
+      }
+      tin.ShearVector = shear;
+    }
+    else
+    {
+      for (int k = 0; k < 9; ++k)
+      {
+        gradient[k] = gather(in.Gradient, k);
+      }
+      tin.VelocityGradient = gradient;
+      Lanes4 mu = in.Viscosity.Valid() ? gather(in.Viscosity, 0) : Lanes4(S.Viscosity);
+      if (in.TurbulentViscosity.Valid())
+      {
+        mu += gather(in.TurbulentViscosity, 0);
+      }
+      tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
+    }
+    FaceTraction<Lanes4> t;
+    FaceTractionValues(tin, t);
+    if (!AllLanes(FiniteLanes(tin.GaugePressure) & FiniteLanes(t.Viscous[0]) &
+          FiniteLanes(t.Viscous[1]) & FiniteLanes(t.Viscous[2]) & FiniteLanes(t.NormalViscous) &
+          FiniteLanes(rho)))
+    {
+      return false;
+    }
+    // Every lane is valid: the stores and tallies of the scalar path.
+    for (int j = 0; j < 4; ++j)
+    {
+      const vtkIdType f = c + j;
+      const bool counted = IsCountedCell(in.Ghosts, f);
+      if (out.FaceOk)
+      {
+        out.FaceOk[f] = 1;
+      }
+      if (this->Balance && counted)
+      {
+        tally.Balance.AddFace(ids[j], N, false);
+      }
+      out.Area[f] = A[j];
+      if (counted)
+      {
+        tally.Area.Add(A[j]);
+        ++tally.Faces;
+      }
+    }
+    StoreVectors(out.ForceP, c, t.Pressure, &A);
+    StoreVectors(out.ForceV, c, t.Viscous, &A);
+    if (Arrays == 1)
+    {
+      StoreVectors(out.Normal, c, normal, nullptr);
+      StoreVectors(out.TractionP, c, t.Pressure, nullptr);
+      StoreVectors(out.TractionV, c, t.Viscous, nullptr);
+      StoreVectors(out.Traction, c, t.Total, nullptr);
+      StoreVectors(out.Force, c, t.Total, &A);
+      StoreScalars(out.NormalV, c, t.NormalViscous);
+      StoreScalars(out.Directional, c, Dot(t.Total, loadDirection));
+    }
+    if (out.Cp)
+    {
+      StoreScalars(out.Cp, c, tin.GaugePressure / S.DynamicPressure);
+    }
+    if (out.Cf)
+    {
+      StoreScalars(out.Cf, c, t.ShearMagnitude / S.DynamicPressure);
+    }
+    return true;
+  }
+
+  /// v (times `scale` when given) of faces c..c+3 into a 3-component array.
+  static WALLLOADS_FACE_INLINE void StoreVectors(
+    double* to, vtkIdType c, const Lanes4 v[3], const Lanes4* scale)
+  {
+    Lanes4 w[3] = { v[0], v[1], v[2] };
+    if (scale)
+    {
+      w[0] = v[0] * *scale;
+      w[1] = v[1] * *scale;
+      w[2] = v[2] * *scale;
+    }
+    double* d = to + 3 * c;
+    for (int j = 0; j < 4; ++j)
+    {
+      d[3 * j] = w[0][j];
+      d[3 * j + 1] = w[1][j];
+      d[3 * j + 2] = w[2][j];
+    }
+  }
+
+  static WALLLOADS_FACE_INLINE void StoreScalars(double* to, vtkIdType c, const Lanes4& v)
+  {
+    for (int j = 0; j < 4; ++j)
+    {
+      to[c + j] = v[j];
+    }
+  }
+#endif
 
   void Reduce() {}
 };

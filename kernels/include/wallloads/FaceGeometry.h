@@ -14,30 +14,10 @@
  * Coordinates are taken relative to the first vertex so that faces far from
  * the origin keep their significant digits.
  */
+#include "wallloads/Lanes.h"
 #include "wallloads/Vector3.h"
 
 #include <cstdint>
-
-/// Inlined into the face loops whatever the compiler's size heuristics say
-/// (a call per face costs more than the work in it).
-#if defined(__GNUC__) || defined(__clang__)
-#define WALLLOADS_FACE_INLINE inline __attribute__((always_inline))
-#else
-#define WALLLOADS_FACE_INLINE inline
-#endif
-
-/// Face loops are compiled twice on x86-64 with GCC or Clang: for the
-/// baseline target (SSE2) and for AVX2, chosen at run time. AVX2 only (no
-/// FMA: products and sums stay separately rounded), so both give the same
-/// IEEE results; AVX's three-operand instructions drop the register copies
-/// that make up a fifth of the baseline loops.
-#if (defined(__GNUC__) || defined(__clang__)) && defined(__x86_64__)
-#define WALLLOADS_AVX2_CLONE 1
-#define WALLLOADS_TARGET_AVX2 __attribute__((target("avx2")))
-#else
-#define WALLLOADS_AVX2_CLONE 0
-#define WALLLOADS_TARGET_AVX2
-#endif
 
 namespace wallloads
 {
@@ -80,33 +60,92 @@ inline void Relative(const P* p, const T o[3], T out[3])
 
 namespace detail
 {
-/// Pass 1 of ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time).
-template <int N, typename T, typename P, typename I>
-WALLLOADS_FACE_INLINE FaceStatus FaceNormalPass(
-  const P* points, const I* ids, int numIds, T normal[3], T& area, T relativeAreaTolerance)
+/**
+ * Pass 1 sums of the fan about corner 0: `a`, twice the area vector (the sum
+ * of the fan triangles' cross products, Newell's vector), and `size2`, the
+ * largest squared distance of a corner from corner 0. `corner(k, r)` gives
+ * corner k (1 <= k < n) relative to corner 0. Templated on the value type:
+ * double for one face, Lanes4 for four faces at once (Lanes.h).
+ */
+template <int N, typename T, typename Corner>
+WALLLOADS_FACE_INLINE void FanAreaSums(Corner&& corner, int numIds, T a[3], T& size2)
 {
   const int n = N > 0 ? N : numIds;
-  const P* p0 = points + 3 * ids[0];
-  const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
-  T a[3] = { 0, 0, 0 };
+  a[0] = a[1] = a[2] = T(0);
   T prev[3];
-  Relative(points + 3 * ids[1], o, prev);
-  T size2 = Dot(prev, prev);
+  corner(1, prev);
+  size2 = Dot(prev, prev);
   for (int k = 2; k < n; ++k)
   {
     T cur[3];
-    Relative(points + 3 * ids[k], o, cur);
+    corner(k, cur);
     T c[3];
     Cross(prev, cur, c);
     a[0] += c[0];
     a[1] += c[1];
     a[2] += c[2];
     const T d2 = Dot(cur, cur);
-    size2 = d2 > size2 ? d2 : size2;
+    size2 = Larger(d2, size2);
     prev[0] = cur[0];
     prev[1] = cur[1];
     prev[2] = cur[2];
   }
+}
+
+/// The unit normal and the area from pass 1's `a` and its length.
+template <typename T>
+WALLLOADS_FACE_INLINE void NormalAndArea(const T a[3], const T& twiceArea, T normal[3], T& area)
+{
+  const T inv = T(1) / twiceArea;
+  normal[0] = a[0] * inv;
+  normal[1] = a[1] * inv;
+  normal[2] = a[2] * inv;
+  area = T(0.5) * twiceArea;
+}
+
+/**
+ * Pass 2: the area centroid relative to corner 0, the fan triangles weighted
+ * by their area along the unit normal `nhat` (exact when the face is planar;
+ * a warped face gets the centroid of its projection's fan).
+ */
+template <int N, typename T, typename Corner>
+WALLLOADS_FACE_INLINE void FanCentroid(Corner&& corner, int numIds, const T nhat[3], T centroid[3])
+{
+  const int n = N > 0 ? N : numIds;
+  T cw[3] = { T(0), T(0), T(0) };
+  T w = T(0);
+  T prev[3];
+  corner(1, prev);
+  for (int k = 2; k < n; ++k)
+  {
+    T cur[3];
+    corner(k, cur);
+    T c[3];
+    Cross(prev, cur, c);
+    const T wt = Dot(c, nhat);
+    w += wt;
+    cw[0] += wt * (prev[0] + cur[0]);
+    cw[1] += wt * (prev[1] + cur[1]);
+    cw[2] += wt * (prev[2] + cur[2]);
+    prev[0] = cur[0];
+    prev[1] = cur[1];
+    prev[2] = cur[2];
+  }
+  const T invW = T(1) / (T(3) * w);
+  centroid[0] = cw[0] * invW;
+  centroid[1] = cw[1] * invW;
+  centroid[2] = cw[2] * invW;
+}
+
+/// Pass 1 of ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time).
+template <int N, typename T, typename P, typename I>
+WALLLOADS_FACE_INLINE FaceStatus FaceNormalPass(const P* points, const I* ids, int numIds,
+  T normal[3], T& area, T relativeAreaTolerance, T a[3])
+{
+  const P* p0 = points + 3 * ids[0];
+  const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
+  T size2;
+  FanAreaSums<N>([&](int k, T r[3]) { Relative(points + 3 * ids[k], o, r); }, numIds, a, size2);
   if (!AllFinite(a, 3) || !AllFinite(o, 3))
   {
     return FaceStatus::NonFinite;
@@ -116,11 +155,7 @@ WALLLOADS_FACE_INLINE FaceStatus FaceNormalPass(
   {
     return FaceStatus::ZeroArea;
   }
-  const T inv = T(1) / twiceArea;
-  normal[0] = a[0] * inv;
-  normal[1] = a[1] * inv;
-  normal[2] = a[2] * inv;
-  area = T(0.5) * twiceArea;
+  NormalAndArea(a, twiceArea, normal, area);
   return FaceStatus::Ok;
 }
 } // namespace detail
@@ -134,71 +169,44 @@ template <typename T, typename P, typename I>
 WALLLOADS_FACE_INLINE FaceStatus ComputeFaceNormal(const P* points, const I* ids, int numIds, T normal[3],
   T& area, T relativeAreaTolerance = T(1e-14))
 {
+  T a[3];
   switch (numIds)
   {
     case 3:
-      return detail::FaceNormalPass<3>(points, ids, 3, normal, area, relativeAreaTolerance);
+      return detail::FaceNormalPass<3>(points, ids, 3, normal, area, relativeAreaTolerance, a);
     case 4:
-      return detail::FaceNormalPass<4>(points, ids, 4, normal, area, relativeAreaTolerance);
+      return detail::FaceNormalPass<4>(points, ids, 4, normal, area, relativeAreaTolerance, a);
     default:
       return numIds < 3
         ? FaceStatus::TooFewPoints
-        : detail::FaceNormalPass<0>(points, ids, numIds, normal, area, relativeAreaTolerance);
+        : detail::FaceNormalPass<0>(points, ids, numIds, normal, area, relativeAreaTolerance, a);
   }
 }
 
 namespace detail
 {
-/// ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time): the same operations.
+/// ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time).
 template <int N, typename T, typename P, typename I>
 WALLLOADS_FACE_INLINE FaceStatus FaceFramePass(
   const P* points, const I* ids, int numIds, FaceFrame<T>& frame, T relativeAreaTolerance)
 {
-  const int n = N > 0 ? N : numIds;
-  T nhat[3];
-  T area;
+  T a[3];
   const FaceStatus status =
-    FaceNormalPass<N>(points, ids, n, nhat, area, relativeAreaTolerance);
+    FaceNormalPass<N>(points, ids, numIds, frame.Normal, frame.Area, relativeAreaTolerance, a);
   if (status != FaceStatus::Ok)
   {
     return status;
   }
   const P* p0 = points + 3 * ids[0];
   const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
-  T cw[3] = { 0, 0, 0 };
-  T w = 0;
-  T prev[3];
-  Relative(points + 3 * ids[1], o, prev);
-  T a[3] = { 0, 0, 0 };
-  for (int k = 2; k < n; ++k)
+  T c[3];
+  FanCentroid<N>(
+    [&](int k, T r[3]) { Relative(points + 3 * ids[k], o, r); }, numIds, frame.Normal, c);
+  for (int k = 0; k < 3; ++k)
   {
-    T cur[3];
-    Relative(points + 3 * ids[k], o, cur);
-    T c[3];
-    Cross(prev, cur, c);
-    a[0] += c[0];
-    a[1] += c[1];
-    a[2] += c[2];
-    const T wt = Dot(c, nhat);
-    w += wt;
-    cw[0] += wt * (prev[0] + cur[0]);
-    cw[1] += wt * (prev[1] + cur[1]);
-    cw[2] += wt * (prev[2] + cur[2]);
-    prev[0] = cur[0];
-    prev[1] = cur[1];
-    prev[2] = cur[2];
+    frame.AreaVector[k] = T(0.5) * a[k];
+    frame.Centroid[k] = o[k] + c[k];
   }
-  frame.AreaVector[0] = T(0.5) * a[0];
-  frame.AreaVector[1] = T(0.5) * a[1];
-  frame.AreaVector[2] = T(0.5) * a[2];
-  frame.Area = area;
-  frame.Normal[0] = nhat[0];
-  frame.Normal[1] = nhat[1];
-  frame.Normal[2] = nhat[2];
-  const T invW = T(1) / (T(3) * w);
-  frame.Centroid[0] = o[0] + cw[0] * invW;
-  frame.Centroid[1] = o[1] + cw[1] * invW;
-  frame.Centroid[2] = o[2] + cw[2] * invW;
   return FaceStatus::Ok;
 }
 } // namespace detail
@@ -237,5 +245,86 @@ FaceStatus ComputeFaceFrame(const P* points, const I* ids, int numIds, FaceFrame
   return numIds < 3 ? FaceStatus::TooFewPoints
                     : detail::FaceFramePass<0>(points, ids, numIds, frame, relativeAreaTolerance);
 }
+
+#if WALLLOADS_LANES
+/**
+ * Four faces of `N` corners each, read from a coordinate array of type `P`
+ * and each face's corner ids: corner(k, r) gives corner k of every face
+ * relative to that face's corner 0 (Relative, lane by lane), as the passes
+ * above take it.
+ */
+template <int N, typename P, typename I>
+struct FourFaces
+{
+  const P* Points;
+  const I* const* Ids; ///< four id lists of N corners
+  Lanes4 Origin[3];    ///< corner 0 of each face
+
+  WALLLOADS_FACE_INLINE FourFaces(const P* points, const I* const ids[4])
+    : Points(points)
+    , Ids(ids)
+  {
+    this->Fetch(0, this->Origin);
+  }
+  WALLLOADS_FACE_INLINE void Fetch(int k, Lanes4 r[3]) const
+  {
+    const P* q0 = this->Points + 3 * this->Ids[0][k];
+    const P* q1 = this->Points + 3 * this->Ids[1][k];
+    const P* q2 = this->Points + 3 * this->Ids[2][k];
+    const P* q3 = this->Points + 3 * this->Ids[3][k];
+    for (int d = 0; d < 3; ++d)
+    {
+      r[d] = Lanes4::Of(double(q0[d]), double(q1[d]), double(q2[d]), double(q3[d]));
+    }
+  }
+  WALLLOADS_FACE_INLINE void operator()(int k, Lanes4 r[3]) const
+  {
+    this->Fetch(k, r);
+    r[0] -= this->Origin[0];
+    r[1] -= this->Origin[1];
+    r[2] -= this->Origin[2];
+  }
+};
+
+/**
+ * ComputeFaceNormal for four faces of N corners: true when all four are Ok,
+ * each lane then holding the values the scalar function gives its face;
+ * false when any is not (the caller then takes the faces one by one).
+ */
+template <int N, typename P, typename I>
+WALLLOADS_FACE_INLINE bool FaceNormalLanes(const FourFaces<N, P, I>& faces, Lanes4 normal[3],
+  Lanes4& area, Lanes4 a[3], double relativeAreaTolerance = 1e-14)
+{
+  Lanes4 size2;
+  detail::FanAreaSums<N>(faces, N, a, size2);
+  const Lanes4* o = faces.Origin;
+  if (!AllLanes(FiniteLanes(a[0]) & FiniteLanes(a[1]) & FiniteLanes(a[2]) & FiniteLanes(o[0]) &
+        FiniteLanes(o[1]) & FiniteLanes(o[2])))
+  {
+    return false;
+  }
+  const Lanes4 twiceArea = Norm(a);
+  if (!AllLanes(twiceArea > Lanes4(2.0) * relativeAreaTolerance * size2))
+  {
+    return false;
+  }
+  detail::NormalAndArea(a, twiceArea, normal, area);
+  return true;
+}
+
+/// The area centroid of ComputeFaceFrame for four faces whose normals
+/// FaceNormalLanes gave (the same values, lane by lane).
+template <int N, typename P, typename I>
+WALLLOADS_FACE_INLINE void FaceCentroidLanes(
+  const FourFaces<N, P, I>& faces, const Lanes4 normal[3], Lanes4 centroid[3])
+{
+  Lanes4 c[3];
+  detail::FanCentroid<N>(faces, N, normal, c);
+  for (int k = 0; k < 3; ++k)
+  {
+    centroid[k] = faces.Origin[k] + c[k];
+  }
+}
+#endif // WALLLOADS_LANES
 
 } // namespace wallloads

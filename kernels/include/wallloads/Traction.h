@@ -12,6 +12,7 @@
  * stress, and its normal part, which vanishes at a no-slip wall in
  * incompressible flow and is kept as a diagnostic.
  */
+#include "wallloads/Lanes.h"
 #include "wallloads/Vector3.h"
 
 namespace wallloads
@@ -19,7 +20,7 @@ namespace wallloads
 
 /// Viscous traction tau n from a row-major velocity gradient G (G[3*i+j] = du_i/dx_j).
 template <typename T>
-inline void ViscousTractionFromGradient(const T G[9], T muEff, const T n[3], T out[3])
+WALLLOADS_FACE_INLINE void ViscousTractionFromGradient(const T G[9], T muEff, const T n[3], T out[3])
 {
   const T trace = G[0] + G[4] + G[8];
   const T bulk = T(2) / T(3) * trace;
@@ -34,7 +35,7 @@ inline void ViscousTractionFromGradient(const T G[9], T muEff, const T n[3], T o
 
 /// Split a vector into its part along n (returned) and its tangential part.
 template <typename T>
-inline T SplitNormalTangential(const T v[3], const T n[3], T tangential[3])
+WALLLOADS_FACE_INLINE T SplitNormalTangential(const T v[3], const T n[3], T tangential[3])
 {
   const T vn = Dot(v, n);
   tangential[0] = v[0] - vn * n[0];
@@ -68,9 +69,13 @@ struct FaceTraction
   T ShearMagnitude = 0; ///< |wall shear stress|, Pa
 };
 
-/// Traction on one wall face. Returns false if any input is not finite.
+/**
+ * The values of ComputeFaceTraction without its check, for any value type:
+ * double for one face, Lanes4 (Lanes.h) for four faces at once, with the
+ * same operations lane by lane.
+ */
 template <typename T>
-inline bool ComputeFaceTraction(const FaceTractionInput<T>& in, FaceTraction<T>& out)
+WALLLOADS_FACE_INLINE void FaceTractionValues(const FaceTractionInput<T>& in, FaceTraction<T>& out)
 {
   const T* n = in.Normal;
   const T dp = in.GaugePressure;
@@ -78,7 +83,7 @@ inline bool ComputeFaceTraction(const FaceTractionInput<T>& in, FaceTraction<T>&
   out.Pressure[1] = -dp * n[1];
   out.Pressure[2] = -dp * n[2];
 
-  T viscous[3] = { 0, 0, 0 };
+  T viscous[3] = { T(0), T(0), T(0) };
   if (in.VelocityGradient)
   {
     ViscousTractionFromGradient(in.VelocityGradient, in.EffectiveViscosity, n, viscous);
@@ -98,7 +103,15 @@ inline bool ComputeFaceTraction(const FaceTractionInput<T>& in, FaceTraction<T>&
     out.Viscous[i] = shear[i] + keep * n[i];
     out.Total[i] = out.Pressure[i] + out.Viscous[i];
   }
-  return std::isfinite(dp) && AllFinite(out.Viscous, 3) && std::isfinite(out.NormalViscous);
+}
+
+/// Traction on one wall face. Returns false if any input is not finite.
+template <typename T>
+WALLLOADS_FACE_INLINE bool ComputeFaceTraction(const FaceTractionInput<T>& in, FaceTraction<T>& out)
+{
+  FaceTractionValues(in, out);
+  return std::isfinite(in.GaugePressure) && AllFinite(out.Viscous, 3) &&
+    std::isfinite(out.NormalViscous);
 }
 
 } // namespace wallloads

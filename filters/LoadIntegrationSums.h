@@ -29,6 +29,7 @@ using Sums = LoadSums<double>;
 struct LeafInputs
 {
   ArrayView ForceP, ForceV, Area, Region;
+  vtkDataArray *ForcePArray = nullptr, *ForceVArray = nullptr, *AreaArray = nullptr;
   PointView Points;
   const unsigned char* Ghosts = nullptr;
   int FixedRegion = 0;  ///< region of the leaf when no region array is used
@@ -281,7 +282,7 @@ struct SumLoop
     {
       // Faces c + j are summed in lane j (a split of the faces like the
       // threads' one, merged the same way).
-      LaneSums lanes;
+      LoadSums<Lanes4> lanes;
       vtkIdType c = begin;
       for (; c + 4 <= end; c += 4)
       {
@@ -309,7 +310,7 @@ struct SumLoop
         oneFace(c);
       }
       acc.Store(sums);
-      lanes.MergeInto(sums);
+      MergeLanes(lanes, sums);
       return;
     }
 #endif
@@ -321,27 +322,6 @@ struct SumLoop
   }
 
 #if WALLLOADS_LANES
-  /// Compensated sums of the slots with one face per lane.
-  struct LaneSums
-  {
-    CompensatedSum<Lanes4> Slot[NumLoadSlots];
-
-    /// Each lane's sums merged into `to` in lane order (as thread sums are).
-    void MergeInto(Sums& to) const
-    {
-      for (int j = 0; j < 4; ++j)
-      {
-        Sums lane;
-        for (std::size_t k = 0; k < NumLoadSlots; ++k)
-        {
-          lane.Sums.Terms[k].Sum = this->Slot[k].Sum[j];
-          lane.Sums.Terms[k].Carry = this->Slot[k].Carry[j];
-        }
-        to.Merge(lane);
-      }
-    }
-  };
-
   /**
    * Faces c..c+3, all of N corners and counted, by the same kernels on
    * Lanes4 (each face's slot values are the scalar ones); false, with
@@ -349,7 +329,7 @@ struct SumLoop
    */
   template <int N>
   WALLLOADS_FACE_INLINE bool Quartet(
-    vtkIdType c, const I* const ids[4], const P* points, LaneSums& lanes) const
+    vtkIdType c, const I* const ids[4], const P* points, LoadSums<Lanes4>& lanes) const
   {
     const double* fpData = static_cast<const double*>(In.ForceP.Data) + 3 * c;
     const double* fvData = static_cast<const double*>(In.ForceV.Data) + 3 * c;
@@ -377,24 +357,8 @@ struct SumLoop
     }
     Lanes4 centroid[3];
     FaceCentroidLanes(faces, normal, centroid);
-    // LoadSums::AddFace's values (FaceSlots), four faces at once.
-    const Lanes4 arm[3] = { centroid[0] - this->R0[0], centroid[1] - this->R0[1],
-      centroid[2] - this->R0[2] };
-    Lanes4 mp[3];
-    Lanes4 mv[3];
-    Cross(arm, fp, mp);
-    Cross(arm, fv, mv);
-    const Lanes4 f[3] = { fp[0] + fv[0], fp[1] + fv[1], fp[2] + fv[2] };
-    lanes.Slot[AreaSlot].Add(area);
-    for (int k = 0; k < 3; ++k)
-    {
-      lanes.Slot[PressureForceSlot + k].Add(fp[k]);
-      lanes.Slot[ViscousForceSlot + k].Add(fv[k]);
-      lanes.Slot[PressureMomentSlot + k].Add(mp[k]);
-      lanes.Slot[ViscousMomentSlot + k].Add(mv[k]);
-    }
-    lanes.Slot[FaceCountSlot].Add(Lanes4(1.0));
-    lanes.Slot[ForceMagnitudeSlot].Add(Norm(f));
+    const Lanes4 r0[3] = { Lanes4(this->R0[0]), Lanes4(this->R0[1]), Lanes4(this->R0[2]) };
+    lanes.AddFace(area, centroid, r0, fp, fv);
     return true;
   }
 #endif

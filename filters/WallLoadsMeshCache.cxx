@@ -14,11 +14,12 @@
 #include "vtkUnstructuredGrid.h"
 
 #include <algorithm>
+#include <mutex>
 
 namespace wallloads
 {
 
-MeshIdentity MeshIdentity::Of(vtkDataSet* ds, vtkDataArray* extra)
+MeshIdentity MeshIdentity::Of(vtkDataSet* ds, std::initializer_list<vtkDataArray*> extras)
 {
   MeshIdentity id;
   auto hold = [&id](vtkObject* o) {
@@ -65,7 +66,10 @@ MeshIdentity MeshIdentity::Of(vtkDataSet* ds, vtkDataArray* extra)
   hold(points);
   array(points ? points->GetData() : nullptr);
   array(ds->GetCellData()->GetGhostArray());
-  array(extra);
+  for (vtkDataArray* extra : extras)
+  {
+    array(extra);
+  }
   return id;
 }
 
@@ -162,7 +166,7 @@ bool MeshResultCache::Find(
     return false;
   }
   Entry& e = this->Entries[slot];
-  MeshIdentity now = MeshIdentity::Of(ds, extra);
+  MeshIdentity now = MeshIdentity::Of(ds, { extra });
   bool found = false;
   if (now.SameObjects(e.Id))
   {
@@ -190,7 +194,7 @@ void MeshResultCache::Store(
     this->Entries.resize(slot + 1);
   }
   Entry& e = this->Entries[slot];
-  e.Id = MeshIdentity::Of(ds, extra);
+  e.Id = MeshIdentity::Of(ds, { extra });
   e.Id.ComputeHash();
   std::copy(values, values + NumValues, e.Values);
   e.Valid = true;
@@ -263,4 +267,58 @@ void OutputArrayPool::End()
     this->Entries.end());
 }
 
+} // namespace wallloads
+
+namespace wallloads
+{
+namespace
+{
+struct HandedSums
+{
+  vtkWeakPointer<vtkDataArray> Key; ///< the Pressure Force array
+  MeshIdentity Id;
+  LoadSums<double> Sums;
+};
+std::mutex HandedMutex;
+std::vector<HandedSums> Handed;
+}
+
+void HandOverLoadSums(vtkDataSet* ds, vtkDataArray* forceP, vtkDataArray* forceV,
+  vtkDataArray* area, const LoadSums<double>& sums)
+{
+  if (!ds || !forceP || !forceV || !area)
+  {
+    return;
+  }
+  std::lock_guard<std::mutex> lock(HandedMutex);
+  // Drop the entries of freed arrays and the last one of this array.
+  Handed.erase(std::remove_if(Handed.begin(), Handed.end(),
+                 [forceP](const HandedSums& h) { return !h.Key || h.Key == forceP; }),
+    Handed.end());
+  HandedSums h;
+  h.Key = forceP;
+  h.Id = MeshIdentity::Of(ds, { forceP, forceV, area });
+  h.Sums = sums;
+  Handed.push_back(std::move(h));
+}
+
+bool FindHandedLoadSums(vtkDataSet* ds, vtkDataArray* forceP, vtkDataArray* forceV,
+  vtkDataArray* area, LoadSums<double>& sums)
+{
+  if (!ds || !forceP || !forceV || !area)
+  {
+    return false;
+  }
+  const MeshIdentity now = MeshIdentity::Of(ds, { forceP, forceV, area });
+  std::lock_guard<std::mutex> lock(HandedMutex);
+  for (const HandedSums& h : Handed)
+  {
+    if (h.Key == forceP && h.Id.SameObjects(now))
+    {
+      sums = h.Sums;
+      return true;
+    }
+  }
+  return false;
+}
 } // namespace wallloads

@@ -33,11 +33,14 @@
  *   set is memory of the size of the outputs, traded for the page faults of
  *   fresh allocations. Arrays not asked for in an execution are released.
  */
+#include "wallloads/LoadTotals.h"
+
 #include "vtkSmartPointer.h"
 #include "vtkType.h"
 #include "vtkWeakPointer.h"
 
 #include <cstdint>
+#include <initializer_list>
 #include <string>
 #include <vector>
 
@@ -59,8 +62,8 @@ bool HashArrayContents(const std::vector<vtkDataArray*>& arrays, std::uint64_t& 
 class MeshIdentity
 {
 public:
-  /// `extra` (may be null) is an array the result also depends on.
-  static MeshIdentity Of(vtkDataSet* ds, vtkDataArray* extra);
+  /// `extras` (entries may be null) are arrays the result also depends on.
+  static MeshIdentity Of(vtkDataSet* ds, std::initializer_list<vtkDataArray*> extras);
   /// Same objects, unmodified since.
   bool SameObjects(const MeshIdentity& other) const;
   /// Content hash of the arrays (threaded); false if one is not contiguous.
@@ -134,5 +137,28 @@ private:
   std::vector<Entry> Entries;
   std::uint64_t Generation = 0;
 };
+
+/**
+ * Load Integration's sums, computed by Wall Traction in its own face loop
+ * (Load Integration's rule: counted faces, skipped when a force, the area or
+ * the geometry is not finite; moments about the origin) and handed over in
+ * memory, so that a Load Integration fed directly by Wall Traction does not
+ * read every face again.
+ *
+ * The sums are found only for the very objects they were computed from:
+ * the dataset, its points, connectivity and ghost array, and the Pressure
+ * Force, Viscous Force and Face Area arrays, each the same object (held
+ * weakly) with the same modification time and size (MeshIdentity). Any
+ * filter in between that makes new arrays or points, a reader, a script
+ * that edits an array and calls Modified(), or a copy to another process
+ * breaks the match, and Load Integration then sums the faces itself.
+ * Wall Traction hands over one entry per leaf and output array; entries of
+ * freed arrays are dropped.
+ */
+void HandOverLoadSums(vtkDataSet* ds, vtkDataArray* forceP, vtkDataArray* forceV,
+  vtkDataArray* area, const LoadSums<double>& sums);
+/// True and `sums` filled when `ds` and its arrays are those handed over.
+bool FindHandedLoadSums(vtkDataSet* ds, vtkDataArray* forceP, vtkDataArray* forceV,
+  vtkDataArray* area, LoadSums<double>& sums);
 
 } // namespace wallloads

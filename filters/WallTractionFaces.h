@@ -15,6 +15,7 @@
 #include "wallloads/CompensatedSum.h"
 #include "wallloads/EdgeBalance.h"
 #include "wallloads/FaceGeometry.h"
+#include "wallloads/LoadTotals.h"
 #include "wallloads/OrientationCheck.h"
 #include "wallloads/Traction.h"
 
@@ -89,6 +90,9 @@ struct ThreadTally
   CompensatedSum<double> Area;
   vtkIdType NonSurface = 0, Degenerate = 0, NonFinite = 0, Faces = 0;
   EdgeBalance Balance; ///< orientation certificate, when the check runs
+  /// Load Integration's sums of these faces (moments about the origin),
+  /// handed over with the output (WallLoadsMeshCache.h).
+  LoadSums<double> Loads;
 };
 
 /// What the filter keeps between executions (WallLoadsMeshCache.h).
@@ -227,8 +231,9 @@ struct FaceLoop
         tally.NonSurface += counted;
         return;
       }
-      FaceFrame<double> frame; // normal and area only (no centroid here)
-      const FaceStatus status = ComputeFaceNormal<double>(points, ids, n, frame.Normal, frame.Area);
+      // Normal and area, and the centroid for Load Integration's moments.
+      FaceFrame<double> frame;
+      const FaceStatus status = ComputeFaceFrameFast<double>(points, ids, n, frame);
       if (out.FaceOk)
       {
         out.FaceOk[c] = status == FaceStatus::Ok;
@@ -237,6 +242,10 @@ struct FaceLoop
       {
         this->MarkSkipped(c);
         (status == FaceStatus::NonFinite ? tally.NonFinite : tally.Degenerate) += counted;
+        if (counted)
+        {
+          tally.Loads.AddSkipped();
+        }
         return;
       }
       double sign = orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
@@ -314,14 +323,35 @@ struct FaceLoop
       {
         this->MarkSkipped(c);
         tally.NonFinite += counted;
+        if (counted)
+        {
+          tally.Loads.AddSkipped();
+        }
         return;
       }
       const double A = frame.Area;
       out.Area[c] = A;
+      double fp[3];
+      double fv[3];
       for (int k = 0; k < 3; ++k)
       {
-        out.ForceP[3 * c + k] = t.Pressure[k] * A;
-        out.ForceV[3 * c + k] = t.Viscous[k] * A;
+        fp[k] = t.Pressure[k] * A;
+        fv[k] = t.Viscous[k] * A;
+        out.ForceP[3 * c + k] = fp[k];
+        out.ForceV[3 * c + k] = fv[k];
+      }
+      if (counted)
+      {
+        // Load Integration's rule: a force that overflowed is left out.
+        if (AllFinite(fp, 3) && AllFinite(fv, 3))
+        {
+          const double origin[3] = { 0, 0, 0 };
+          tally.Loads.AddFace(A, frame.Centroid, origin, fp, fv);
+        }
+        else
+        {
+          tally.Loads.AddSkipped();
+        }
       }
       if (this->Full())
       {
@@ -358,6 +388,7 @@ struct FaceLoop
       {
         const Lanes4 lanesLoadDirection[3] = { Lanes4(loadDirection[0]), Lanes4(loadDirection[1]),
           Lanes4(loadDirection[2]) };
+        LoadSums<Lanes4> lanes; // Load Integration's sums, one face per lane
         vtkIdType c = begin;
         for (; c + 4 <= end; c += 4)
         {
@@ -370,8 +401,8 @@ struct FaceLoop
             same = (topo.Corners(c + j, ids[j], buffer[j]) == n) && same;
           }
           const bool done = same &&
-            (n == 3 ? this->Quartet<3>(c, ids, tally, points, lanesLoadDirection)
-                    : this->Quartet<4>(c, ids, tally, points, lanesLoadDirection));
+            (n == 3 ? this->Quartet<3>(c, ids, tally, lanes, points, lanesLoadDirection)
+                    : this->Quartet<4>(c, ids, tally, lanes, points, lanesLoadDirection));
           if (!done)
           {
             for (int j = 0; j < 4; ++j)
@@ -384,6 +415,7 @@ struct FaceLoop
         {
           oneFace(c);
         }
+        MergeLanes(lanes, tally.Loads);
         return;
       }
     }
@@ -402,7 +434,7 @@ struct FaceLoop
    */
   template <int N>
   WALLLOADS_FACE_INLINE bool Quartet(vtkIdType c, const I* const ids[4], ThreadTally& tally,
-    const P* points, const Lanes4 loadDirection[3]) const
+    LoadSums<Lanes4>& lanes, const P* points, const Lanes4 loadDirection[3]) const
   {
     const Outputs& out = this->Out;
     const Inputs& in = this->In;
@@ -466,34 +498,47 @@ struct FaceLoop
     }
     FaceTraction<Lanes4> t;
     FaceTractionValues(tin, t);
+    const Lanes4 fp[3] = { t.Pressure[0] * A, t.Pressure[1] * A, t.Pressure[2] * A };
+    const Lanes4 fv[3] = { t.Viscous[0] * A, t.Viscous[1] * A, t.Viscous[2] * A };
     if (!AllLanes(FiniteLanes(tin.GaugePressure) & FiniteLanes(t.Viscous[0]) &
           FiniteLanes(t.Viscous[1]) & FiniteLanes(t.Viscous[2]) & FiniteLanes(t.NormalViscous) &
-          FiniteLanes(rho)))
+          FiniteLanes(rho) & FiniteLanes(fp[0]) & FiniteLanes(fp[1]) & FiniteLanes(fp[2]) &
+          FiniteLanes(fv[0]) & FiniteLanes(fv[1]) & FiniteLanes(fv[2])))
     {
       return false;
     }
+    if (in.Ghosts)
+    {
+      for (int j = 0; j < 4; ++j)
+      {
+        if (!IsCountedCell(in.Ghosts, c + j))
+        {
+          return false; // ghost faces are left out of the sums: one by one
+        }
+      }
+    }
+    Lanes4 centroid[3];
+    FaceCentroidLanes(faces, unit, centroid);
+    const Lanes4 origin[3] = { Lanes4(0.0), Lanes4(0.0), Lanes4(0.0) };
+    lanes.AddFace(A, centroid, origin, fp, fv);
     // Every lane is valid: the stores and tallies of the scalar path.
     for (int j = 0; j < 4; ++j)
     {
-      const vtkIdType f = c + j;
-      const bool counted = IsCountedCell(in.Ghosts, f);
+      const vtkIdType f = c + j; // counted (checked above)
       if (out.FaceOk)
       {
         out.FaceOk[f] = 1;
       }
-      if (this->Balance && counted)
+      if (this->Balance)
       {
         tally.Balance.AddFace(ids[j], N, false);
       }
       out.Area[f] = A[j];
-      if (counted)
-      {
-        tally.Area.Add(A[j]);
-        ++tally.Faces;
-      }
+      tally.Area.Add(A[j]);
+      ++tally.Faces;
     }
-    StoreVectors(out.ForceP, c, t.Pressure, &A);
-    StoreVectors(out.ForceV, c, t.Viscous, &A);
+    StoreVectors(out.ForceP, c, fp, nullptr);
+    StoreVectors(out.ForceV, c, fv, nullptr);
     if (Arrays == 1)
     {
       StoreVectors(out.Normal, c, normal, nullptr);
@@ -550,7 +595,7 @@ struct FaceLoop
 
 template <typename I, typename P>
 void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, Tally& tally,
-  const LeafCache& cache, vtkDataArray* wallNormal)
+  const LeafCache& cache, vtkDataArray* wallNormal, LoadSums<double>& leafLoads)
 {
   // The orientation check depends on the mesh only (and on the Wall Normal
   // array when it decides the orientation): reused while that is unchanged.
@@ -588,6 +633,7 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
       tally.NonFinite += t.NonFinite;
       tally.Faces += t.Faces;
       balance.Merge(t.Balance);
+      leafLoads.Merge(t.Loads);
     }
   };
   // Double cell arrays (Wall Traction's usual input) get loops compiled for

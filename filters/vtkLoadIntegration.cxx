@@ -3,6 +3,7 @@
 
 #include "WallLoadsColumns.h"
 #include "WallLoadsDefaults.h"
+#include "WallLoadsMeshCache.h"
 #include "LoadIntegrationSums.h"
 #include "WallLoadsPipeline.h"
 #include "wallloads/FaceGeometry.h"
@@ -426,18 +427,19 @@ int vtkLoadIntegration::RequestData(
         leaves[i].Name + "' is a " + ds->GetClassName() + ".";
       continue;
     }
-    auto need = [&](const char* name, int comps, ArrayView& view) {
+    auto need = [&](const char* name, int comps, ArrayView& view) -> vtkDataArray* {
       if (!error.empty())
       {
-        return;
+        return nullptr;
       }
       vtkDataArray* a = FindSelectedArray(ds, ArraySelection{ name, false }, comps,
         "Load Integration needs the Wall Traction output:", leaves[i].Name, error);
       view = MakeArrayView(a, false);
+      return a;
     };
-    need(names::PressureForce, 3, in.ForceP);
-    need(names::ViscousForce, 3, in.ForceV);
-    need(names::FaceArea, 1, in.Area);
+    in.ForcePArray = need(names::PressureForce, 3, in.ForceP);
+    in.ForceVArray = need(names::ViscousForce, 3, in.ForceV);
+    in.AreaArray = need(names::FaceArea, 1, in.Area);
     if (error.empty() && regionSel.Set())
     {
       vtkDataArray* a = FindSelectedArray(ds, regionSel, 1, "Region Array", leaves[i].Name, error);
@@ -567,9 +569,23 @@ int vtkLoadIntegration::RequestData(
       break;
     }
     inputs[i].RegionBase = regionBase;
-    DispatchFaces(ds, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
-      SumLeaf<decltype(id), decltype(pt)>(inputs[i], ds, r0, sums);
-    });
+    // Straight from Wall Traction (its output unchanged): the sums it made
+    // in its own face loop; otherwise the faces are summed here.
+    LoadSums<double> handed;
+    if (!inputs[i].Region.Valid() &&
+      FindHandedLoadSums(ds, inputs[i].ForcePArray, inputs[i].ForceVArray, inputs[i].AreaArray,
+        handed))
+    {
+      sums[static_cast<std::size_t>(inputs[i].FixedRegion)].Merge(MomentsAbout(handed, r0));
+      ++this->LeavesHandedOver;
+    }
+    else
+    {
+      DispatchFaces(ds, inputs[i].Points.IsFloat, [&](auto id, auto pt) {
+        SumLeaf<decltype(id), decltype(pt)>(inputs[i], ds, r0, sums);
+      });
+      ++this->LeavesSummed;
+    }
     localCellsDone += static_cast<double>(ds->GetNumberOfCells());
     this->UpdateProgress(0.1 + 0.8 * (localCells > 0 ? localCellsDone / localCells : 1.0));
   }

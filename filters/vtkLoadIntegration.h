@@ -56,6 +56,13 @@
  * Faces whose force or area is not finite (faces Wall Traction skipped) are
  * left out and counted in `Skipped Faces`; the filter warns when any are.
  *
+ * Fed directly by vtkWallTraction, the filter takes the sums Wall Traction
+ * made in its own face loop (same faces, same rule, moments about the origin
+ * moved to MomentCentre) instead of reading every face again, as long as the
+ * dataset, its mesh and the three arrays are the very objects Wall Traction
+ * made, unmodified (WallLoadsMeshCache.h); otherwise, and always with a
+ * RegionArray, it sums the faces itself. The results agree to round-off.
+ *
  * Ghost and MPI policy: ghost faces (vtkGhostType DUPLICATECELL or
  * HIDDENCELL) are never counted. Sums are compensated per thread and reduced
  * over all ranks with one AllReduce; every rank gets the global field data;
@@ -142,6 +149,13 @@ public:
   vtkGetMacro(ReferenceSpan, double);
   ///@}
 
+  ///@{
+  /// Leaves whose sums came from Wall Traction, and leaves summed here, over
+  /// this filter's lifetime (for tests and benchmarks).
+  vtkGetMacro(LeavesHandedOver, vtkIdType);
+  vtkGetMacro(LeavesSummed, vtkIdType);
+  ///@}
+
   /// SI unit of a WallLoads output name (column, array or field value; "-"
   /// for dimensionless), or nullptr for other names.
   static const char* GetColumnUnit(const char* name);
@@ -169,6 +183,8 @@ protected:
   double ReferenceArea = 1.0;
   double ReferenceLength = 1.0;
   double ReferenceSpan = 1.0;
+  vtkIdType LeavesHandedOver = 0;
+  vtkIdType LeavesSummed = 0;
 
 private:
   vtkLoadIntegration(const vtkLoadIntegration&) = delete;

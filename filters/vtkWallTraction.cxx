@@ -164,10 +164,15 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
     tally.NonSurface += static_cast<double>(in->GetNumberOfCells());
     return true;
   }
+  LoadSums<double> loads;
   DispatchFaces(in, inputs.Points.IsFloat, [&](auto id, auto pt) {
     RunFaces<decltype(id), decltype(pt)>(s, inputs, o, in, tally, cache,
-      inputs.WallNormal.Valid() ? in->GetCellData()->GetArray(names::WallNormal) : nullptr);
+      inputs.WallNormal.Valid() ? in->GetCellData()->GetArray(names::WallNormal) : nullptr,
+      loads);
   });
+  vtkCellData* cd = out->GetCellData();
+  HandOverLoadSums(out, cd->GetArray(names::PressureForce), cd->GetArray(names::ViscousForce),
+    cd->GetArray(names::FaceArea), loads);
   return true;
 }
 

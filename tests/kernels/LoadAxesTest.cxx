@@ -171,3 +171,41 @@ TEST(LoadAxes, LineOfActionOfHugeForce)
   EXPECT_NEAR(p[2], 0, 1e-15);
   EXPECT_NEAR(c, 0, 1e-15 * f);
 }
+
+// Moments summed about the origin and moved to r0 (MomentsAbout) against
+// moments summed about r0 directly, for faces far from both: the same to
+// the round-off of the terms (sum |c x f| times a few epsilon).
+TEST(LoadTotals, MomentsMovedToACentreEqualMomentsAboutIt)
+{
+  const double r0[3] = { 12.5, -3.0, 0.25 };
+  LoadSums<double> aboutOrigin;
+  LoadSums<double> aboutCentre;
+  double scale = 0;
+  unsigned state = 12345;
+  auto next = [&state]() {
+    state = state * 1103515245u + 12345u;
+    return static_cast<double>((state >> 8) & 0xffff) / 65536.0 - 0.5;
+  };
+  for (int i = 0; i < 5000; ++i)
+  {
+    const double c[3] = { 10 + next(), -2 + next(), next() };
+    const double fp[3] = { 1e3 * next(), 1e3 * next(), 1e3 * next() };
+    const double fv[3] = { next(), next(), next() };
+    const double origin[3] = { 0, 0, 0 };
+    aboutOrigin.AddFace(0.01, c, origin, fp, fv);
+    aboutCentre.AddFace(0.01, c, r0, fp, fv);
+    scale += 11 * (std::fabs(fp[0]) + std::fabs(fp[1]) + std::fabs(fp[2]));
+  }
+  const LoadSums<double> moved = MomentsAbout(aboutOrigin, r0);
+  for (std::size_t k = 0; k < NumLoadSlots; ++k)
+  {
+    EXPECT_NEAR(moved.Sums.Value(k), aboutCentre.Sums.Value(k), 4e-16 * scale) << "slot " << k;
+  }
+  // About the origin itself nothing changes.
+  const double zero[3] = { 0, 0, 0 };
+  const LoadSums<double> same = MomentsAbout(aboutOrigin, zero);
+  for (std::size_t k = 0; k < NumLoadSlots; ++k)
+  {
+    EXPECT_EQ(same.Sums.Value(k), aboutOrigin.Sums.Value(k));
+  }
+}

@@ -12,6 +12,8 @@
  * of terms, so sequential, threaded and MPI totals agree to round-off.
  * TwoSum has no data-dependent branch, which keeps the face loops fast.
  */
+#include "wallloads/Vector3.h" // WALLLOADS_FACE_INLINE
+
 #include <cmath>
 #include <cstddef>
 
@@ -24,7 +26,7 @@ struct CompensatedSum
   T Sum = T(0);
   T Carry = T(0);
 
-  void Add(T value)
+  WALLLOADS_FACE_INLINE void Add(T value)
   {
     const T t = this->Sum + value;
     const T v = t - this->Sum;
@@ -47,7 +49,7 @@ struct CompensatedSums
 {
   CompensatedSum<T> Terms[N];
 
-  void Add(std::size_t i, T value) { this->Terms[i].Add(value); }
+  WALLLOADS_FACE_INLINE void Add(std::size_t i, T value) { this->Terms[i].Add(value); }
   void Merge(const CompensatedSums& other)
   {
     for (std::size_t i = 0; i < N; ++i)

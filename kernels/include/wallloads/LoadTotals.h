@@ -6,6 +6,7 @@
  * face's area centroid. Compensated sums, mergeable across threads and ranks.
  */
 #include "wallloads/CompensatedSum.h"
+#include "wallloads/Lanes.h"
 #include "wallloads/LoadAxes.h"
 #include "wallloads/Vector3.h"
 
@@ -34,7 +35,8 @@ struct LoadSums
 {
   CompensatedSums<T, NumLoadSlots> Sums;
 
-  void AddFace(T area, const T centroid[3], const T r0[3], const T fp[3], const T fv[3])
+  WALLLOADS_FACE_INLINE void AddFace(
+    T area, const T centroid[3], const T r0[3], const T fp[3], const T fv[3])
   {
     const T arm[3] = { centroid[0] - r0[0], centroid[1] - r0[1], centroid[2] - r0[2] };
     T mp[3];
@@ -54,9 +56,39 @@ struct LoadSums
     this->Sums.Add(ForceMagnitudeSlot, Norm(f));
   }
 
-  void AddSkipped() { this->Sums.Add(SkippedCountSlot, T(1)); }
+  WALLLOADS_FACE_INLINE void AddSkipped() { this->Sums.Add(SkippedCountSlot, T(1)); }
   void Merge(const LoadSums& other) { this->Sums.Merge(other.Sums); }
 };
+
+/**
+ * Sums whose moments were taken about the origin, moved to the moment centre
+ * r0: each face's moment about r0 is (c - r0) x f = c x f - r0 x f, so the
+ * moment sums lose r0 x (their force sum). The subtraction is added to the
+ * compensated sums, so its rounding is that of one more term; with r0 at
+ * the origin nothing changes.
+ */
+template <typename T>
+LoadSums<T> MomentsAbout(const LoadSums<T>& aboutOrigin, const T r0[3])
+{
+  LoadSums<T> s = aboutOrigin;
+  const std::size_t force[2] = { PressureForceSlot, ViscousForceSlot };
+  const std::size_t moment[2] = { PressureMomentSlot, ViscousMomentSlot };
+  for (int part = 0; part < 2; ++part)
+  {
+    const T f[3] = { s.Sums.Value(force[part]), s.Sums.Value(force[part] + 1),
+      s.Sums.Value(force[part] + 2) };
+    T shift[3];
+    Cross(r0, f, shift);
+    for (std::size_t i = 0; i < 3; ++i)
+    {
+      if (shift[i] != T(0))
+      {
+        s.Sums.Add(moment[part] + i, -shift[i]);
+      }
+    }
+  }
+  return s;
+}
 
 /// Reference values that turn loads into coefficients.
 template <typename T>
@@ -145,5 +177,23 @@ inline void FinishRegion(const T slots[NumLoadSlots], const T r0[3], const LoadA
   LineOfAction(resolved ? out.Force : zero, out.Moment, r0, out.LineOfActionPoint,
     out.ResidualCouple);
 }
+
+#if WALLLOADS_LANES
+/// Sums kept with one face per lane (LoadSums<Lanes4>), merged into `to`
+/// lane by lane, as the sums of four threads would be.
+inline void MergeLanes(const LoadSums<Lanes4>& lanes, LoadSums<double>& to)
+{
+  for (int j = 0; j < 4; ++j)
+  {
+    LoadSums<double> lane;
+    for (std::size_t k = 0; k < NumLoadSlots; ++k)
+    {
+      lane.Sums.Terms[k].Sum = lanes.Sums.Terms[k].Sum[j];
+      lane.Sums.Terms[k].Carry = lanes.Sums.Terms[k].Carry[j];
+    }
+    to.Merge(lane);
+  }
+}
+#endif
 
 } // namespace wallloads

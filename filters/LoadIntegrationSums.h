@@ -30,6 +30,8 @@ struct LeafInputs
 {
   ArrayView ForceP, ForceV, Area, Region;
   vtkDataArray *ForcePArray = nullptr, *ForceVArray = nullptr, *AreaArray = nullptr;
+  bool Handed = false;  ///< HandedSums came from Wall Traction (WallLoadsMeshCache.h)
+  LoadSums<double> HandedSums;
   PointView Points;
   const unsigned char* Ghosts = nullptr;
   int FixedRegion = 0;  ///< region of the leaf when no region array is used

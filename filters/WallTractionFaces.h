@@ -171,6 +171,11 @@ struct FaceLoop
   void operator()(vtkIdType begin, vtkIdType end)
   {
 #if WALLLOADS_AVX2_CLONE
+    if (UseAvx512Loops())
+    {
+      this->FacesAvx512(begin, end);
+      return;
+    }
     if (UseAvx2Loops())
     {
       this->FacesAvx2(begin, end);
@@ -184,6 +189,11 @@ struct FaceLoop
   /// The same loop compiled for AVX2 (Lanes.h), taking four faces at a time
   /// where it can: the same values.
   WALLLOADS_TARGET_AVX2 void FacesAvx2(vtkIdType begin, vtkIdType end)
+  {
+    this->Faces<WALLLOADS_LANES != 0>(begin, end);
+  }
+  /// And for AVX-512VL (twice the vector registers): the same values.
+  WALLLOADS_TARGET_AVX512 void FacesAvx512(vtkIdType begin, vtkIdType end)
   {
     this->Faces<WALLLOADS_LANES != 0>(begin, end);
   }

@@ -415,8 +415,7 @@ int vtkLoadIntegration::RequestData(
     vtkDataSet* ds = leaves[i].Data;
     localCells += static_cast<double>(ds->GetNumberOfCells());
     LeafInputs& in = inputs[i];
-    if (!CheckGhostArrays(ds, leaves[i].Name, error) ||
-      !CheckPointIds(ds, leaves[i].Name, error))
+    if (!CheckGhostArrays(ds, leaves[i].Name, error))
     {
       continue;
     }
@@ -474,6 +473,15 @@ int vtkLoadIntegration::RequestData(
           localMax = std::max(localMax, v);
         }
       }
+    }
+    // Straight from Wall Traction (its output unchanged): the sums it made
+    // in its own face loop, over a mesh it checked; otherwise the faces are
+    // summed here, after the same check.
+    in.Handed = error.empty() && !regionSel.Set() &&
+      FindHandedLoadSums(ds, in.ForcePArray, in.ForceVArray, in.AreaArray, in.HandedSums);
+    if (error.empty() && !in.Handed && !CheckPointIds(ds, leaves[i].Name, error))
+    {
+      continue;
     }
     in.Points = MakePointView(ds);
     in.Ghosts = CellGhostMask(ds);
@@ -569,14 +577,10 @@ int vtkLoadIntegration::RequestData(
       break;
     }
     inputs[i].RegionBase = regionBase;
-    // Straight from Wall Traction (its output unchanged): the sums it made
-    // in its own face loop; otherwise the faces are summed here.
-    LoadSums<double> handed;
-    if (!inputs[i].Region.Valid() &&
-      FindHandedLoadSums(ds, inputs[i].ForcePArray, inputs[i].ForceVArray, inputs[i].AreaArray,
-        handed))
+    if (inputs[i].Handed)
     {
-      sums[static_cast<std::size_t>(inputs[i].FixedRegion)].Merge(MomentsAbout(handed, r0));
+      sums[static_cast<std::size_t>(inputs[i].FixedRegion)].Merge(
+        MomentsAbout(inputs[i].HandedSums, r0));
       ++this->LeavesHandedOver;
     }
     else

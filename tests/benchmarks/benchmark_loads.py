@@ -26,6 +26,8 @@ and on STDThread (all cores):
     the gradient components and for its tangential part, and
     vtkIntegrateAttributes (which multiplies by the cell areas);
   * the same sums written with numpy on the VTK arrays;
+  * the memory floor of a one-thread loop in the same run: reading the
+    inputs and rewriting arrays of the outputs' size with numpy;
 
 and prints faces per second, the ratios, the thread speed-up, memory (output
 arrays, peak resident memory beyond what was held before), the cache counters
@@ -249,6 +251,33 @@ def timed_split(run, repeat, arg=None):
     return best, result
 
 
+def memory_floor(pd, offsets, conn, pts, repeat):
+    """Same-run bound of a one-thread face loop: the best time to read the
+    arrays Wall Traction reads (pressure, gradient, offsets, connectivity,
+    points) and to rewrite, in place, arrays of the size of its outputs
+    (forces only: 7 doubles per face, all arrays: 24), measured with numpy."""
+    nf = pd.GetNumberOfCells()
+    inputs = [vtk_to_numpy(pd.GetCellData().GetArray("p")), vtk_to_numpy(pd.GetCellData().GetArray("grad")),
+              offsets, conn, pts]
+    read = float("inf")
+    for _ in range(repeat):
+        t0 = time.perf_counter()
+        for a in inputs:
+            np.add.reduce(a.ravel())
+        read = min(read, time.perf_counter() - t0)
+    writes = {}
+    for label, per_face in (("forces only", 7), ("all arrays", 24)):
+        out = np.ones(nf * per_face)
+        best = float("inf")
+        for _ in range(repeat):
+            t0 = time.perf_counter()
+            out.fill(0.0)
+            best = min(best, time.perf_counter() - t0)
+        writes[label] = best
+        del out
+    return read, writes
+
+
 def write_step_file(pd, path):
     writer = vtkXMLPolyDataWriter()
     writer.SetInputData(pd)
@@ -281,6 +310,13 @@ def main():
         nf = pd.GetNumberOfCells()
         mf = lambda t: nf / t / 1e6
         say("\n== %d faces ==" % nf)
+        vtkSMPTools.SetBackend("Sequential")
+        read_floor, write_floor = memory_floor(pd, offsets, conn, pts, args.repeat)
+        floors = {}
+        for what, w in write_floor.items():
+            floors[what] = read_floor + w
+            say("%-34s read inputs %.3f s + rewrite %s outputs %.3f s = %.3f s = %6.2f M faces/s (one thread)"
+                % ("memory floor", read_floor, what, w, read_floor + w, mf(read_floor + w)))
         results = {}
         for backend in ("Sequential", "STDThread"):
             vtkSMPTools.SetBackend(backend)
@@ -322,6 +358,9 @@ def main():
                       "check cost %+.3f s" % ("", wt.GetMeshCacheBuilds(), wt.GetMeshCacheHits(),
                                               wt.GetOutputArraysAllocated(), wt.GetOutputArraysReused(),
                                               check_cost))
+                say("%-34s Load Integration: sums handed over by Wall Traction %d, summed itself %d;"
+                      " %.0f%% of the memory floor" % ("", run.li.GetLeavesHandedOver(), run.li.GetLeavesSummed(),
+                                                       100 * floors[what] / t if backend == "Sequential" else float("nan")))
                 summary.append((nf, key, min(firsts), t, wt_t, li_t, check_cost, min(nocheck)))
                 if forces_only and millions <= 2.5:
                     # New objects with the same content each step (a reader).

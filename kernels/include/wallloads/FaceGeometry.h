@@ -33,6 +33,18 @@ inline bool UseAvx2Loops()
 #endif
 }
 
+/// Whether it runs the AVX-512VL clones (AVX-512 state enabled by the OS).
+inline bool UseAvx512Loops()
+{
+#if WALLLOADS_AVX2_CLONE
+  static const bool avx512 = UseAvx2Loops() && __builtin_cpu_supports("avx512f") != 0 &&
+    __builtin_cpu_supports("avx512vl") != 0;
+  return avx512;
+#else
+  return false;
+#endif
+}
+
 enum class FaceStatus : std::uint8_t
 {
   Ok = 0,

@@ -22,17 +22,20 @@
 #include <cstdint>
 #include <limits>
 
-/// Face loops are compiled twice on x86-64 with GCC or Clang: for the
-/// baseline target (SSE2) and for AVX2, chosen at run time. AVX2 only (no
-/// FMA: products and sums stay separately rounded), so both give the same
-/// IEEE results; AVX's three-operand instructions drop the register copies
-/// that make up a fifth of the baseline loops.
+/// Face loops are compiled for the baseline target (SSE2) and for AVX2
+/// (Wall Traction's also for AVX-512VL, whose 32 vector registers spare the
+/// four-face path most of its spills), chosen at run time. The filters are
+/// compiled with -ffp-contract=off, so no target forms a multiply-add:
+/// products and sums stay separately rounded and every clone gives the same
+/// IEEE results.
 #if (defined(__GNUC__) || defined(__clang__)) && defined(__x86_64__)
 #define WALLLOADS_AVX2_CLONE 1
 #define WALLLOADS_TARGET_AVX2 __attribute__((target("avx2")))
+#define WALLLOADS_TARGET_AVX512 __attribute__((target("avx2,avx512f,avx512vl")))
 #else
 #define WALLLOADS_AVX2_CLONE 0
 #define WALLLOADS_TARGET_AVX2
+#define WALLLOADS_TARGET_AVX512
 #endif
 
 #if defined(__GNUC__) || defined(__clang__)

@@ -290,15 +290,11 @@ struct SumLoop
       {
         I buffer[4][4];
         const I* ids[4];
-        const int n = topo.Corners(c, ids[0], buffer[0]);
-        bool same = n == 3 || n == 4;
-        for (int j = 0; j < 4; ++j)
-        {
-          same = same && IsCountedCell(ghosts, c + j) &&
-            (j == 0 || topo.Corners(c + j, ids[j], buffer[j]) == n);
-        }
-        const bool done =
-          same && (n == 3 ? this->Quartet<3>(c, ids, points, lanes) : this->Quartet<4>(c, ids, points, lanes));
+        const int n = topo.RunOfFour(c, ids, buffer);
+        const bool counted = IsCountedCell(ghosts, c) && IsCountedCell(ghosts, c + 1) &&
+          IsCountedCell(ghosts, c + 2) && IsCountedCell(ghosts, c + 3);
+        const bool done = n != 0 && counted &&
+          (n == 3 ? this->Quartet<3>(c, ids, points, lanes) : this->Quartet<4>(c, ids, points, lanes));
         if (!done)
         {
           for (int j = 0; j < 4; ++j)

@@ -404,13 +404,8 @@ struct FaceLoop
         {
           I buffer[4][4];
           const I* ids[4];
-          const int n = topo.Corners(c, ids[0], buffer[0]);
-          bool same = n == 3 || n == 4;
-          for (int j = 1; j < 4; ++j)
-          {
-            same = (topo.Corners(c + j, ids[j], buffer[j]) == n) && same;
-          }
-          const bool done = same &&
+          const int n = topo.RunOfFour(c, ids, buffer);
+          const bool done = n != 0 &&
             (n == 3 ? this->Quartet<3>(c, ids, tally, lanes, points, lanesLoadDirection)
                     : this->Quartet<4>(c, ids, tally, lanes, points, lanesLoadDirection));
           if (!done)

@@ -13,6 +13,7 @@
 #include "vtkPointData.h"
 #include "vtkPoints.h"
 #include "vtkPolyData.h"
+#include "vtkUnsignedCharArray.h"
 
 #include <cmath>
 
@@ -134,6 +135,21 @@ void AddPointField(vtkPolyData* pd, const std::string& name, int comps,
     a->SetTypedTuple(p, v.data());
   }
   pd->GetPointData()->AddArray(a);
+}
+
+void MarkGhost(vtkDataSet* ds, long long cell)
+{
+  vtkUnsignedCharArray* ghosts = ds->GetCellData()->GetGhostArray();
+  if (!ghosts)
+  {
+    auto made = vtkSmartPointer<vtkUnsignedCharArray>::New();
+    made->SetName(vtkDataSetAttributes::GhostArrayName());
+    made->SetNumberOfTuples(ds->GetNumberOfCells());
+    made->FillValue(0);
+    ds->GetCellData()->AddArray(made);
+    ghosts = made;
+  }
+  ghosts->SetValue(cell, vtkDataSetAttributes::DUPLICATECELL);
 }
 
 double Field(vtkDataObject* d, const char* name, int k)

@@ -10,6 +10,7 @@
 
 class vtkAlgorithm;
 class vtkDataObject;
+class vtkDataSet;
 class vtkPolyData;
 class vtkUnstructuredGrid;
 
@@ -27,6 +28,8 @@ void AddCellField(vtkPolyData* pd, const std::string& name, int comps,
 /// Add a point array f(x).
 void AddPointField(vtkPolyData* pd, const std::string& name, int comps,
   const std::function<void(const Vec&, double*)>& f);
+/// Mark `cell` of `ds` a ghost (DUPLICATECELL), adding a ghost array if none.
+void MarkGhost(vtkDataSet* ds, long long cell);
 /// Field-data value (component k) of a data object.
 double Field(vtkDataObject* d, const char* name, int k = 0);
 /// Collects error and warning messages of an algorithm.

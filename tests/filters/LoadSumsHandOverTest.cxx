@@ -108,12 +108,7 @@ TEST(LoadSumsHandOver, DirectlyFedSumsEqualItsOwnSummation)
   auto body = Body();
   // A ghost face, a face with a NaN pressure and one whose viscous traction
   // overflows: the same faces are counted and skipped either way.
-  auto ghosts = vtkSmartPointer<vtkUnsignedCharArray>::New();
-  ghosts->SetName(vtkDataSetAttributes::GhostArrayName());
-  ghosts->SetNumberOfTuples(body->GetNumberOfCells());
-  ghosts->FillValue(0);
-  ghosts->SetValue(33, vtkDataSetAttributes::DUPLICATECELL);
-  body->GetCellData()->AddArray(ghosts);
+  MarkGhost(body, 33);
   body->GetCellData()->GetArray("p")->SetComponent(50, 0, std::nan(""));
   body->GetCellData()->GetArray("grad")->SetComponent(71, 1, 1e308);
   body->GetCellData()->GetArray("grad")->SetComponent(71, 3, -1e308);

@@ -170,12 +170,14 @@ struct FaceLoop
 
   void operator()(vtkIdType begin, vtkIdType end)
   {
-#if WALLLOADS_AVX2_CLONE
+#if WALLLOADS_AVX512_CLONE
     if (UseAvx512Loops())
     {
       this->FacesAvx512(begin, end);
       return;
     }
+#endif
+#if WALLLOADS_AVX2_CLONE
     if (UseAvx2Loops())
     {
       this->FacesAvx2(begin, end);
@@ -192,6 +194,8 @@ struct FaceLoop
   {
     this->Faces<WALLLOADS_LANES != 0>(begin, end);
   }
+#endif
+#if WALLLOADS_AVX512_CLONE
   /// And for AVX-512VL (twice the vector registers): the same values.
   WALLLOADS_TARGET_AVX512 void FacesAvx512(vtkIdType begin, vtkIdType end)
   {
@@ -705,6 +709,17 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
   tally.OpenEdges += orientation[1];
 }
 
+
+/// Instantiated in WallTractionFaces32.cxx and WallTractionFaces64.cxx (one
+/// per connectivity width, compiled in parallel: these loops are the
+/// largest code in the library).
+#define WALLLOADS_RUN_FACES(prefix, I, P)                                                          \
+  prefix template void RunFaces<I, P>(const Settings&, const Inputs&, Outputs, vtkDataSet*,       \
+    Tally&, const LeafCache&, vtkDataArray*, LoadSums<double>&);
+WALLLOADS_RUN_FACES(extern, vtkTypeInt32, float)
+WALLLOADS_RUN_FACES(extern, vtkTypeInt32, double)
+WALLLOADS_RUN_FACES(extern, vtkTypeInt64, float)
+WALLLOADS_RUN_FACES(extern, vtkTypeInt64, double)
 
 } // namespace traction
 } // namespace wallloads

@@ -36,7 +36,7 @@ inline bool UseAvx2Loops()
 /// Whether it runs the AVX-512VL clones (AVX-512 state enabled by the OS).
 inline bool UseAvx512Loops()
 {
-#if WALLLOADS_AVX2_CLONE
+#if WALLLOADS_AVX512_CLONE
   static const bool avx512 = UseAvx2Loops() && __builtin_cpu_supports("avx512f") != 0 &&
     __builtin_cpu_supports("avx512vl") != 0;
   return avx512;

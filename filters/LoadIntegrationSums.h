@@ -1,12 +1,14 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #pragma once
 /**
- * Load Integration's face loop (private to vtkLoadIntegration.cxx): per-face
- * centroid (unrolled for triangles and quadrilaterals), moment arm and the
- * sixteen compensated sums of LoadTotals.h, threaded with vtkSMPTools. Wall
- * Traction's double cell arrays are read directly and a leaf's single region
- * is summed in separate arrays (one vectorised loop per face); other inputs
- * (float arrays, a region array) go through the typed views.
+ * Load Integration's face loop (private to vtkLoadIntegration.cxx), for
+ * inputs whose sums Wall Traction did not hand over: per-face centroid
+ * (unrolled for triangles and quadrilaterals), moment arm and the sixteen
+ * compensated sums of LoadTotals.h, threaded with vtkSMPTools. Wall
+ * Traction's double cell arrays are read directly, a leaf's single region
+ * summed in separate arrays (in the AVX2 clone, runs of four like faces on
+ * Lanes4, Lanes.h); other inputs (float arrays, a region array) go through
+ * the typed views.
  */
 #include "WallLoadsPipeline.h"
 #include "wallloads/CompensatedSum.h"

@@ -1,13 +1,16 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #pragma once
 /**
- * Wall Traction's face loop (private to vtkWallTraction.cxx): per face the
- * Newell normal and area (unrolled for triangles and quadrilaterals, no
- * centroid), the traction from the pressure and the viscous source, the
- * per-face arrays, the tallies, and, when the orientation check must run,
- * the edge-balance certificate (EdgeBalance.h) that spares the exact check
- * on closed consistently oriented surfaces. The check's result is kept per
- * leaf while the mesh is unchanged (WallLoadsMeshCache.h).
+ * Wall Traction's face loop (private to vtkWallTraction.cxx; instantiated in
+ * WallTractionFaces32/64.cxx): per face the Newell normal, area and centroid
+ * (unrolled for triangles and quadrilaterals), the traction from the
+ * pressure and the viscous source, the per-face arrays, the tallies, Load
+ * Integration's sums (handed over, WallLoadsMeshCache.h), and, when the
+ * orientation check must run, the edge-balance certificate (EdgeBalance.h)
+ * that spares the exact check on closed consistently oriented surfaces. The
+ * check's result is kept per leaf while the mesh is unchanged. In the AVX2
+ * and AVX-512VL clones, runs of four like faces take the same kernels on
+ * Lanes4 (Lanes.h), with the same values.
  */
 #include "WallLoadsMeshCache.h"
 #include "WallLoadsPipeline.h"

@@ -239,7 +239,10 @@ public:
    * MeshCacheHits counts leaves that reused it (ContentHits: by content),
    * MeshCacheBuilds leaves where the check ran. Output arrays are reused when
    * their size matches and nothing but the filter holds them (reference
-   * count 1); OutputArraysReused / Allocated count arrays.
+   * count 1); OutputArraysReused / Allocated count arrays. Each execution
+   * also makes vtkLoadIntegration's sums of every leaf in the face loop and
+   * hands them over in memory for exactly these output objects
+   * (vtkLoadIntegration::GetLeavesHandedOver).
    */
   vtkIdType GetMeshCacheHits();
   vtkIdType GetMeshCacheContentHits();

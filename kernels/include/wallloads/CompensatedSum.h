@@ -26,7 +26,7 @@ struct CompensatedSum
   T Sum = T(0);
   T Carry = T(0);
 
-  WALLLOADS_FACE_INLINE void Add(T value)
+  WALLLOADS_FACE_INLINE void Add(const T& value)
   {
     const T t = this->Sum + value;
     const T v = t - this->Sum;
@@ -49,7 +49,7 @@ struct CompensatedSums
 {
   CompensatedSum<T> Terms[N];
 
-  WALLLOADS_FACE_INLINE void Add(std::size_t i, T value) { this->Terms[i].Add(value); }
+  WALLLOADS_FACE_INLINE void Add(std::size_t i, const T& value) { this->Terms[i].Add(value); }
   void Merge(const CompensatedSums& other)
   {
     for (std::size_t i = 0; i < N; ++i)

@@ -36,7 +36,7 @@ struct LoadSums
   CompensatedSums<T, NumLoadSlots> Sums;
 
   WALLLOADS_FACE_INLINE void AddFace(
-    T area, const T centroid[3], const T r0[3], const T fp[3], const T fv[3])
+    const T& area, const T centroid[3], const T r0[3], const T fp[3], const T fv[3])
   {
     const T arm[3] = { centroid[0] - r0[0], centroid[1] - r0[1], centroid[2] - r0[2] };
     T mp[3];

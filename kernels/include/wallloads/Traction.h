@@ -20,7 +20,8 @@ namespace wallloads
 
 /// Viscous traction tau n from a row-major velocity gradient G (G[3*i+j] = du_i/dx_j).
 template <typename T>
-WALLLOADS_FACE_INLINE void ViscousTractionFromGradient(const T G[9], T muEff, const T n[3], T out[3])
+WALLLOADS_FACE_INLINE void ViscousTractionFromGradient(
+  const T G[9], const T& muEff, const T n[3], T out[3])
 {
   const T trace = G[0] + G[4] + G[8];
   const T bulk = T(2) / T(3) * trace;

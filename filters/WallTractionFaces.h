@@ -427,7 +427,7 @@ struct FaceLoop
         {
           oneFace(c);
         }
-        MergeLanes(lanes, tally.Loads);
+        MergeLaneTallies(lanes, tally);
         return;
       }
     }
@@ -438,6 +438,25 @@ struct FaceLoop
     }
   }
 #if WALLLOADS_LANES
+  /// Merges the lanes' sums into the thread's, and takes the wetted area and
+  /// face count of those faces from their area and count slots: every face
+  /// summed in lanes is counted and finite, so the four-face path carries no
+  /// per-face scalar sum (a chain of dependent additions) of its own.
+  static void MergeLaneTallies(const LoadSums<Lanes4>& lanes, ThreadTally& tally)
+  {
+    MergeLanes(lanes, tally.Loads);
+    const CompensatedSum<Lanes4>& area = lanes.Sums.Terms[AreaSlot];
+    const CompensatedSum<Lanes4>& count = lanes.Sums.Terms[FaceCountSlot];
+    for (int j = 0; j < 4; ++j)
+    {
+      CompensatedSum<double> laneArea;
+      laneArea.Sum = area.Sum[j];
+      laneArea.Carry = area.Carry[j];
+      tally.Area.Merge(laneArea);
+      tally.Faces += static_cast<vtkIdType>(count.Sum[j] + count.Carry[j]);
+    }
+  }
+
   /**
    * Faces c..c+3, all of N corners, by the same kernels on Lanes4: each face
    * gets the values and tallies the scalar path gives it. False, with nothing
@@ -545,10 +564,8 @@ struct FaceLoop
       {
         tally.Balance.AddFace(ids[j], N, false);
       }
-      out.Area[f] = A[j];
-      tally.Area.Add(A[j]);
-      ++tally.Faces;
     }
+    StoreScalars(out.Area, c, A);
     StoreVectors(out.ForceP, c, fp, nullptr);
     StoreVectors(out.ForceV, c, fv, nullptr);
     if (Arrays == 1)

@@ -23,6 +23,7 @@
 
 #include <cmath>
 #include <cstring>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -123,6 +124,15 @@ vtkSmartPointer<vtkWallTraction> Traction(vtkDataObject* input, const Case& k)
   wt->Update();
   return wt;
 }
+
+// The wetted area of positive face areas summed in another order (by
+// lanes, then merged): the compensated sums (Neumaier 1974) of both orders
+// are within a relative 2u + O(n u^2) of the exact sum, so they agree to a
+// few units in the last place (often exactly).
+void ExpectSameSum(double a, double b)
+{
+  EXPECT_NEAR(a, b, 4 * std::numeric_limits<double>::epsilon() * std::abs(a));
+}
 } // namespace
 
 TEST(FourFacePath, EveryFaceGetsTheOneFaceValues)
@@ -167,7 +177,7 @@ TEST(FourFacePath, EveryFaceGetsTheOneFaceValues)
       ++compared;
     }
     EXPECT_GE(compared, k.Arrays == vtkWallTraction::ALL_ARRAYS ? 12 : 8);
-    EXPECT_EQ(Field(a->GetOutputDataObject(0), "Wetted Area"),
+    ExpectSameSum(Field(a->GetOutputDataObject(0), "Wetted Area"),
       Field(b->GetOutputDataObject(0), "Wetted Area"));
 
     // Load Integration over both: the same faces in another order.
@@ -222,7 +232,7 @@ TEST(FourFacePath, AnUncommonFaceInARun)
       ASSERT_TRUE(std::memcmp(&u, &v, sizeof u) == 0 || (std::isnan(u) && std::isnan(v))) << f;
     }
   }
-  EXPECT_EQ(Field(a->GetOutputDataObject(0), "Wetted Area"),
+  ExpectSameSum(Field(a->GetOutputDataObject(0), "Wetted Area"),
     Field(b->GetOutputDataObject(0), "Wetted Area"));
   auto la = vtkSmartPointer<vtkLoadIntegration>::New();
   la->SetInputConnection(a->GetOutputPort());

@@ -323,16 +323,17 @@ def main():
             for forces_only in (False, True):
                 what = "forces only" if forces_only else "all arrays"
                 key = "%s, %s" % (backend, what)
-                # First execution: a new pipeline (fresh arrays, the check runs).
-                firsts, first_split = [], None
-                for _ in range(max(1, args.repeat // 2)):
+                # First execution: a new pipeline (fresh arrays, the check
+                # runs), interleaved with new pipelines without the check, so
+                # that both see the same machine; first executions are
+                # dominated by page faults and vary more than re-executions.
+                firsts, first_split, nocheck = [], None, []
+                for _ in range(max(3, args.repeat)):
                     run = WallLoadsPipeline(pd, True, forces_only)
                     (t, wt_t, li_t), _ = timed_split(run, 1)
                     firsts.append(t)
                     first_split = (wt_t, li_t) if t == min(firsts) else first_split
                     del run
-                nocheck = []
-                for _ in range(max(1, args.repeat // 2)):
                     run = WallLoadsPipeline(pd, False, forces_only)
                     (t, wt_t, li_t), _ = timed_split(run, 1)
                     nocheck.append(wt_t)

@@ -15,7 +15,8 @@
  * The multisets are compared through a polynomial fingerprint: with g(a) a
  * 64-bit hash of the point id and arithmetic modulo 2^64,
  *
- *   D = sum over half-edges (a, b) of  g(a) g(b)^2 - g(b) g(a)^2.
+ *   D = sum over half-edges (a, b) of  g(a) g(b)^2 - g(b) g(a)^2
+ *     = sum over half-edges (a, b) of  g(a) g(b) (g(b) - g(a)).
  *
  * D is the value of sum_{a<b} C_ab g_a g_b (g_b - g_a), C_ab = count(a->b) -
  * count(b->a), which is the zero polynomial exactly when every C_ab is 0.
@@ -30,8 +31,9 @@
  * D = 0, and the exact check, which joins faces only across edges of two
  * users, then also finds 0 and 0: the reported counts agree.
  *
- * Cost: per face, three multiplications per corner and two per edge, with
- * no memory. Passes over parts of the faces merge by addition, so the pass
+ * Cost: per face, two multiplications per corner (its hash) and two per
+ * edge, with no memory. Integer arithmetic modulo 2^64 is exact and
+ * commutative: passes over parts of the faces merge by addition, so the pass
  * is threaded in any split with the same result.
  */
 #include <cstdint>
@@ -41,8 +43,7 @@ namespace wallloads
 
 struct EdgeBalance
 {
-  std::uint64_t Forward = 0;  ///< sum of g(a) g(b)^2 over half-edges (a, b), mod 2^64
-  std::uint64_t Backward = 0; ///< sum of g(b) g(a)^2 over half-edges (a, b), mod 2^64
+  std::uint64_t Imbalance = 0; ///< D above, modulo 2^64
   std::int64_t Faces = 0;
   bool Irregular = false; ///< a face repeats a corner id
 
@@ -83,7 +84,6 @@ struct EdgeBalance
   {
     const int n = N > 0 ? N : numIds;
     std::uint64_t g[N > 0 ? N : 64];
-    std::uint64_t g2[N > 0 ? N : 64];
     for (int k = 0; k < n; ++k)
     {
       for (int j = 0; j < k; ++j)
@@ -91,31 +91,27 @@ struct EdgeBalance
         this->Irregular |= ids[j] == ids[k];
       }
       g[k] = Hash(static_cast<std::uint64_t>(ids[k]));
-      g2[k] = g[k] * g[k];
     }
-    std::uint64_t f = 0, r = 0;
+    std::uint64_t d = 0;
     for (int k = 0; k < n; ++k)
     {
-      const int b = k + 1 == n ? 0 : k + 1;
-      f += g[k] * g2[b];
-      r += g[b] * g2[k];
+      const std::uint64_t b = g[k + 1 == n ? 0 : k + 1];
+      d += g[k] * b * (b - g[k]);
     }
-    this->Forward += reversed ? r : f;
-    this->Backward += reversed ? f : r;
+    this->Imbalance += reversed ? 0 - d : d;
     ++this->Faces;
   }
 
   void Merge(const EdgeBalance& other)
   {
-    this->Forward += other.Forward;
-    this->Backward += other.Backward;
+    this->Imbalance += other.Imbalance;
     this->Faces += other.Faces;
     this->Irregular |= other.Irregular;
   }
 
   /// True: closed and consistently oriented (see above). False: unknown,
   /// run the exact check.
-  bool ClosedAndConsistent() const { return !this->Irregular && this->Forward == this->Backward; }
+  bool ClosedAndConsistent() const { return !this->Irregular && this->Imbalance == 0; }
 };
 
 } // namespace wallloads

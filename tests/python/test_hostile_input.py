@@ -222,27 +222,18 @@ def item4_cells():
     polys.SetData(offsets, pd.GetPolys().GetConnectivityArray())  # decreasing offsets
     pd.SetPolys(polys)
     expect_error(wall_traction(pd), "offsets")
-    # The same deep in a large offsets array (checked in threaded chunks whose
-    # bounds depend on the backend; a decrease at every position of a small
-    # array is covered below).
-    for at in (40000, 65537, 89999):
-        pd = squares(300)
-        cell_scalar(pd, "p", [1.0] * 90000)
-        offsets = np.arange(90001, dtype=np.int64) * 4
-        offsets[at] = offsets[at - 1] - 1
-        polys = vtkCellArray()
-        polys.SetData(n2v(offsets, deep=1), pd.GetPolys().GetConnectivityArray())
-        pd.SetPolys(polys)
-        expect_error(wall_traction(pd), "offsets")
-    for at in range(1, 16):  # 4 x 4 squares: 17 offsets
-        pd = squares(4)
-        cell_scalar(pd, "p", [1.0] * 16)
-        offsets = np.arange(17, dtype=np.int64) * 4
-        offsets[at] = offsets[at - 1] - 1
-        polys = vtkCellArray()
-        polys.SetData(n2v(offsets, deep=1), pd.GetPolys().GetConnectivityArray())
-        pd.SetPolys(polys)
-        expect_error(wall_traction(pd), "offsets")
+    # A decrease at every position of a small offsets array, and deep in a
+    # large one (checked in threaded chunks whose bounds depend on the backend).
+    for n, positions in ((4, range(1, 16)), (300, (40000, 65537, 89999))):
+        for at in positions:
+            pd = squares(n)
+            cell_scalar(pd, "p", [1.0] * (n * n))
+            offsets = np.arange(n * n + 1, dtype=np.int64) * 4
+            offsets[at] = offsets[at - 1] - 1
+            polys = vtkCellArray()
+            polys.SetData(n2v(offsets, deep=1), pd.GetPolys().GetConnectivityArray())
+            pd.SetPolys(polys)
+            expect_error(wall_traction(pd), "offsets")
     # An unstructured grid with fewer cell types than cells.
     src = squares(2)
     ug = vtkUnstructuredGrid()

@@ -153,9 +153,9 @@ bool HashArrayContents(const std::vector<vtkDataArray*>& arrays, std::uint64_t& 
 
 bool MeshIdentity::ComputeHash()
 {
-  this->HashKnown = HashArrayContents(this->Arrays, this->Hash);
+  this->Hashed = HashArrayContents(this->Arrays, this->Hash);
   this->Arrays.clear(); // no raw pointer outlives the call
-  return this->HashKnown;
+  return this->Hashed;
 }
 
 bool MeshResultCache::Find(
@@ -173,11 +173,15 @@ bool MeshResultCache::Find(
     ++this->Hits;
     found = true;
   }
-  else if (now.ComputeHash() && now.SameContent(e.Id))
+  else if (e.Id.HashKnown()) // else stored by identity only (Store's byContent)
   {
-    ++this->ContentHits;
-    e.Id = now; // the new objects: the next step takes the fast path
-    found = true;
+    ++this->Hashes;
+    if (now.ComputeHash() && now.SameContent(e.Id))
+    {
+      ++this->ContentHits;
+      e.Id = now; // the new objects: the next step takes the fast path
+      found = true;
+    }
   }
   if (found)
   {
@@ -186,8 +190,8 @@ bool MeshResultCache::Find(
   return found;
 }
 
-void MeshResultCache::Store(
-  std::size_t slot, vtkDataSet* ds, vtkDataArray* extra, const double values[NumValues])
+void MeshResultCache::Store(std::size_t slot, vtkDataSet* ds, vtkDataArray* extra,
+  const double values[NumValues], bool byContent)
 {
   if (slot >= this->Entries.size())
   {
@@ -195,7 +199,11 @@ void MeshResultCache::Store(
   }
   Entry& e = this->Entries[slot];
   e.Id = MeshIdentity::Of(ds, { extra });
-  e.Id.ComputeHash();
+  if (byContent)
+  {
+    ++this->Hashes;
+    e.Id.ComputeHash();
+  }
   std::copy(values, values + NumValues, e.Values);
   e.Valid = true;
   ++this->Builds;

@@ -17,10 +17,17 @@
  *     2. otherwise, for readers that hand over new objects with the same
  *        content on every step, the same counts and the same 64-bit content
  *        hash (ContentHash.h) of those arrays' bytes, computed threaded at
- *        memory speed (about 10 ms for a 2M-quad surface, against the
- *        hundreds of ms of the check it saves). Non-contiguous arrays
- *        (implicit or structure-of-arrays) have no content hash: a new
- *        object then always counts as a new mesh.
+ *        memory speed. Non-contiguous arrays (implicit or
+ *        structure-of-arrays) have no content hash: a new object then
+ *        always counts as a new mesh.
+ *   A hash is taken only where it is cheaper than what it saves (Store's
+ *   `byContent`): after the exact check (hundreds of ms on a large open
+ *   surface), not after the face loop's edge-balance certificate, which
+ *   reads less memory than the hash does (it needs the connectivity only,
+ *   already in registers in the face loop; the hash reads points and
+ *   connectivity again: about 10 ms against 7 ms on two threads at 2M
+ *   faces). A certified mesh is found by identity only, and new objects
+ *   are certified again in their face loop.
  *   Cached state: a few dozen bytes per leaf (no per-face state).
  *
  * - OutputArrayPool: per leaf and array name, up to two double arrays reused
@@ -68,9 +75,10 @@ public:
   bool SameObjects(const MeshIdentity& other) const;
   /// Content hash of the arrays (threaded); false if one is not contiguous.
   bool ComputeHash();
+  bool HashKnown() const { return this->Hashed; }
   bool SameContent(const MeshIdentity& other) const
   {
-    return this->HashKnown && other.HashKnown && this->Hash == other.Hash &&
+    return this->Hashed && other.Hashed && this->Hash == other.Hash &&
       this->Counts == other.Counts;
   }
 
@@ -81,7 +89,7 @@ private:
   std::vector<vtkDataArray*> Arrays; ///< to hash; cleared by ComputeHash
   std::vector<vtkIdType> Counts;
   std::uint64_t Hash = 0;
-  bool HashKnown = false;
+  bool Hashed = false;
 };
 
 /// Per-leaf results that depend only on the mesh (see the header comment).
@@ -91,14 +99,17 @@ public:
   static constexpr int NumValues = 2;
   /// True and `values` filled when leaf `slot` holds the same mesh as when stored.
   bool Find(std::size_t slot, vtkDataSet* ds, vtkDataArray* extra, double values[NumValues]);
-  /// Remember `values` for leaf `slot` (hashes the mesh for later steps).
-  void Store(std::size_t slot, vtkDataSet* ds, vtkDataArray* extra, const double values[NumValues]);
+  /// Remember `values` for leaf `slot`; `byContent`: also hash the mesh, so
+  /// that new objects with the same content find them (see above).
+  void Store(std::size_t slot, vtkDataSet* ds, vtkDataArray* extra,
+    const double values[NumValues], bool byContent);
   /// Forget leaves from `count` on.
   void Resize(std::size_t count);
 
   vtkIdType Hits = 0;        ///< found by object identity and modification time
   vtkIdType ContentHits = 0; ///< found by content hash (new objects, same mesh)
   vtkIdType Builds = 0;      ///< stored (the result was computed)
+  vtkIdType Hashes = 0;      ///< content hashes taken (Store and Find)
 
 private:
   struct Entry

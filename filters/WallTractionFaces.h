@@ -698,7 +698,8 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
     FaceLoop<I, P, false> loop(s, in, out, topo);
     run(loop);
   }
-  if (check && balance.ClosedAndConsistent())
+  const bool certified = check && balance.ClosedAndConsistent();
+  if (certified)
   {
     // Certified closed and consistently oriented in the face loop itself
     // (EdgeBalance.h): the exact check would find 0 and 0.
@@ -723,7 +724,9 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
   }
   if (check && cache.Results)
   {
-    cache.Results->Store(cache.Slot, ds, wallNormal, orientation);
+    // Hashed for new objects with the same content only when the exact
+    // check ran: certifying again costs less than hashing (WallLoadsMeshCache.h).
+    cache.Results->Store(cache.Slot, ds, wallNormal, orientation, !certified);
   }
   tally.Inconsistent += orientation[0];
   tally.OpenEdges += orientation[1];

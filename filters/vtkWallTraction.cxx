@@ -260,6 +260,10 @@ vtkIdType vtkWallTraction::GetMeshCacheBuilds()
 {
   return this->Cache->Results.Builds;
 }
+vtkIdType vtkWallTraction::GetMeshContentHashes()
+{
+  return this->Cache->Results.Hashes;
+}
 vtkIdType vtkWallTraction::GetOutputArraysReused()
 {
   return this->Cache->Pool.Reused;

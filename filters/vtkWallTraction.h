@@ -234,19 +234,24 @@ public:
    * same mesh), for tests and benchmarks. The orientation check's result is
    * kept per leaf while the mesh is unchanged: the same point, connectivity,
    * cell-type, ghost (and, for Orientation = Use Wall Normal array, Wall
-   * Normal) arrays with unchanged modification times, or new arrays with the
-   * same 64-bit content hash (readers that make new objects for every step).
-   * MeshCacheHits counts leaves that reused it (ContentHits: by content),
-   * MeshCacheBuilds leaves where the check ran. Output arrays are reused when
-   * their size matches and nothing but the filter holds them (reference
-   * count 1); OutputArraysReused / Allocated count arrays. Each execution
-   * also makes vtkLoadIntegration's sums of every leaf in the face loop and
-   * hands them over in memory for exactly these output objects
+   * Normal) arrays with unchanged modification times, or, after the exact
+   * check ran (an open or inconsistent surface), new arrays with the same
+   * 64-bit content hash (readers that make new objects for every step). A
+   * surface certified closed and consistent in the face loop is not hashed:
+   * new objects are certified again, which costs less than the hash.
+   * MeshCacheHits counts leaves that reused the result (ContentHits: by
+   * content), MeshCacheBuilds leaves where the check ran (certificate or
+   * exact check), MeshContentHashes content hashes taken. Output arrays are
+   * reused when their size matches and nothing but the filter holds them
+   * (reference count 1); OutputArraysReused / Allocated count arrays. Each
+   * execution also makes vtkLoadIntegration's sums of every leaf in the face
+   * loop and hands them over in memory for exactly these output objects
    * (vtkLoadIntegration::GetLeavesHandedOver).
    */
   vtkIdType GetMeshCacheHits();
   vtkIdType GetMeshCacheContentHits();
   vtkIdType GetMeshCacheBuilds();
+  vtkIdType GetMeshContentHashes();
   vtkIdType GetOutputArraysReused();
   vtkIdType GetOutputArraysAllocated();
   ///@}

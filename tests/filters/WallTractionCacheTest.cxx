@@ -75,9 +75,15 @@ TEST(WallTractionCache, ReExecutionReusesTheOrientationCheck)
 
 TEST(WallTractionCache, NewObjectsWithTheSameMeshAreFoundByContent)
 {
+  // An open surface (one face removed: four open edges) takes the exact
+  // check, and its result is hashed for later steps.
   auto s = PressureSphere(10);
+  s->DeleteCell(40);
+  s->RemoveDeletedCells();
   auto wt = Traction(s);
   wt->Update();
+  EXPECT_EQ(OpenEdges(wt), 4);
+  EXPECT_EQ(wt->GetMeshContentHashes(), 1);
   // A reader hands over new objects each step: found by the content hash,
   // then by identity on the next step.
   auto step = Copy(s);
@@ -85,11 +91,40 @@ TEST(WallTractionCache, NewObjectsWithTheSameMeshAreFoundByContent)
   wt->Update();
   EXPECT_EQ(wt->GetMeshCacheBuilds(), 1);
   EXPECT_EQ(wt->GetMeshCacheContentHits(), 1);
+  EXPECT_EQ(wt->GetMeshContentHashes(), 2);
+  EXPECT_EQ(OpenEdges(wt), 4);
   wt->Modified();
   wt->Update();
   EXPECT_EQ(wt->GetMeshCacheBuilds(), 1);
   EXPECT_EQ(wt->GetMeshCacheHits(), 2);
   EXPECT_EQ(wt->GetMeshCacheContentHits(), 1);
+  EXPECT_EQ(wt->GetMeshContentHashes(), 2);
+}
+
+TEST(WallTractionCache, ACertifiedMeshIsNotHashed)
+{
+  // A closed, consistent surface is certified in the face loop; a hash
+  // would cost more than certifying new objects again, so none is taken.
+  auto s = PressureSphere(10);
+  auto wt = Traction(s);
+  wt->Update();
+  EXPECT_EQ(wt->GetMeshCacheBuilds(), 1);
+  EXPECT_EQ(wt->GetMeshContentHashes(), 0);
+  wt->Modified();
+  wt->Update();
+  EXPECT_EQ(wt->GetMeshCacheHits(), 1);
+  auto step = Copy(s);
+  wt->SetInputDataObject(step);
+  wt->Update();
+  EXPECT_EQ(wt->GetMeshCacheBuilds(), 2);
+  EXPECT_EQ(wt->GetMeshCacheContentHits(), 0);
+  EXPECT_EQ(wt->GetMeshContentHashes(), 0);
+  EXPECT_EQ(Inconsistent(wt), 0);
+  EXPECT_EQ(OpenEdges(wt), 0);
+  wt->Modified();
+  wt->Update();
+  EXPECT_EQ(wt->GetMeshCacheBuilds(), 2);
+  EXPECT_EQ(wt->GetMeshCacheHits(), 2);
 }
 
 TEST(WallTractionCache, AChangedMeshIsCheckedAgain)

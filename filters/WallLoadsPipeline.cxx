@@ -241,7 +241,62 @@ bool CellArrayWellFormed(vtkCellArray* cells)
 }
 } // namespace
 
-bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error)
+ValidatedCells::Entry ValidatedCells::Of(vtkCellArray* cells)
+{
+  Entry e;
+  vtkDataArray* offsets = cells->GetOffsetsArray();
+  vtkDataArray* connectivity = cells->GetConnectivityArray();
+  e.Offsets = offsets;
+  e.Connectivity = connectivity;
+  e.OffsetsTime = offsets ? offsets->GetMTime() : 0;
+  e.ConnectivityTime = connectivity ? connectivity->GetMTime() : 0;
+  e.OffsetsSize = offsets ? offsets->GetNumberOfValues() : -1;
+  e.ConnectivitySize = connectivity ? connectivity->GetNumberOfValues() : -1;
+  return e;
+}
+
+bool ValidatedCells::Known(vtkCellArray* cells) const
+{
+  if (!cells || !cells->GetOffsetsArray() || !cells->GetConnectivityArray())
+  {
+    return false;
+  }
+  const Entry now = Of(cells);
+  for (const Entry& e : this->Entries)
+  {
+    // A weak pointer turns null when its array is freed: a new array at the
+    // same address never matches.
+    if (e.Offsets == now.Offsets && e.Connectivity == now.Connectivity && e.Offsets &&
+      e.Connectivity && e.OffsetsTime == now.OffsetsTime &&
+      e.ConnectivityTime == now.ConnectivityTime && e.OffsetsSize == now.OffsetsSize &&
+      e.ConnectivitySize == now.ConnectivitySize)
+    {
+      return true;
+    }
+  }
+  return false;
+}
+
+void ValidatedCells::Remember(vtkCellArray* cells)
+{
+  if (!cells || !cells->GetOffsetsArray() || !cells->GetConnectivityArray())
+  {
+    return;
+  }
+  // Freed arrays first, then the oldest entries beyond the bound.
+  this->Entries.erase(std::remove_if(this->Entries.begin(), this->Entries.end(),
+                        [](const Entry& e) { return !e.Offsets || !e.Connectivity; }),
+    this->Entries.end());
+  constexpr std::size_t Bound = 256;
+  if (this->Entries.size() >= Bound)
+  {
+    this->Entries.erase(this->Entries.begin());
+  }
+  this->Entries.push_back(Of(cells));
+}
+
+bool CheckPointIds(
+  vtkDataSet* ds, const std::string& blockName, std::string& error, ValidatedCells* validated)
 {
   const std::string of = blockName.empty() ? std::string() : " of block '" + blockName + "'";
   std::vector<vtkCellArray*> arrays;
@@ -263,7 +318,22 @@ bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& er
   }
   for (vtkCellArray* cells : arrays)
   {
-    if (!CellArrayWellFormed(cells))
+    if (validated && validated->Known(cells))
+    {
+      continue;
+    }
+    if (validated && cells)
+    {
+      ++validated->Scans;
+    }
+    if (CellArrayWellFormed(cells))
+    {
+      if (validated)
+      {
+        validated->Remember(cells);
+      }
+    }
+    else
     {
       error = "The cells" + of +
         " are malformed: their offsets do not run from 0 up to the size of the connectivity (" +

@@ -10,6 +10,7 @@
 #include "vtkDataArray.h"
 #include "vtkSmartPointer.h"
 #include "vtkType.h"
+#include "vtkWeakPointer.h"
 
 #include <cstdint>
 #include <string>
@@ -137,14 +138,43 @@ vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int w
 bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string& error);
 
 /**
+ * Cell arrays whose offsets were found well formed, remembered by weak
+ * identity, modification time and size of their offsets and connectivity
+ * arrays: a filter re-executed on the same mesh (a time-step loop) does not
+ * scan them again. The same rule as VTK's own cached array ranges (the point
+ * id range below): an array edited in place must be marked Modified().
+ * At most a few hundred entries (the oldest are forgotten).
+ */
+class ValidatedCells
+{
+public:
+  bool Known(vtkCellArray* cells) const;
+  void Remember(vtkCellArray* cells);
+  vtkIdType Scans = 0; ///< cell arrays scanned by CheckPointIds (not Known)
+
+private:
+  struct Entry
+  {
+    vtkWeakPointer<vtkDataArray> Offsets, Connectivity;
+    vtkMTimeType OffsetsTime = 0, ConnectivityTime = 0;
+    vtkIdType OffsetsSize = 0, ConnectivitySize = 0;
+  };
+  static Entry Of(vtkCellArray* cells);
+  std::vector<Entry> Entries;
+};
+
+/**
  * The cells of polydata and unstructured grids must be well formed, as VTK
  * reads them unchecked: offsets from 0, never decreasing, ending at the
  * connectivity's size; one cell type per cell; every point id (connectivity
  * and polyhedron face streams) naming a point of the dataset. False with
  * `error` set (the block, the problem, e.g. the largest id and the point
  * count) otherwise. Other dataset kinds have implicit connectivity.
+ * `validated` (optional) skips the offsets of cell arrays found well formed
+ * before, and remembers those found now.
  */
-bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error);
+bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error,
+  ValidatedCells* validated = nullptr);
 
 /// "cell arrays: a, b; point arrays: c" for error messages.
 std::string DescribeArrays(vtkDataSet* ds);

@@ -103,6 +103,7 @@ struct LeafCache
 {
   MeshResultCache* Results = nullptr;
   OutputArrayPool* Pool = nullptr;
+  ValidatedCells* Cells = nullptr; ///< offsets found well formed before
   std::size_t Slot = 0; ///< leaf ordinal
 };
 

@@ -110,7 +110,7 @@ bool ProcessLeaf(const Settings& s, vtkDataSet* in, vtkDataSet* out, const std::
       blockName + "' is a " + in->GetClassName() + ".";
     return false;
   }
-  if (!CheckPointIds(in, blockName, error))
+  if (!CheckPointIds(in, blockName, error, cache.Cells))
   {
     return false;
   }
@@ -240,6 +240,7 @@ struct vtkWallTraction::Internals
 {
   wallloads::MeshResultCache Results;
   wallloads::OutputArrayPool Pool;
+  wallloads::ValidatedCells Cells;
 };
 
 //------------------------------------------------------------------------------
@@ -263,6 +264,10 @@ vtkIdType vtkWallTraction::GetMeshCacheBuilds()
 vtkIdType vtkWallTraction::GetMeshContentHashes()
 {
   return this->Cache->Results.Hashes;
+}
+vtkIdType vtkWallTraction::GetCellOffsetScans()
+{
+  return this->Cache->Cells.Scans;
 }
 vtkIdType vtkWallTraction::GetOutputArraysReused()
 {
@@ -405,7 +410,7 @@ int vtkWallTraction::RequestData(
     else
     {
       surfaceCells += cells;
-      LeafCache cache{ &this->Cache->Results, &this->Cache->Pool, leafSlot++ };
+      LeafCache cache{ &this->Cache->Results, &this->Cache->Pool, &this->Cache->Cells, leafSlot++ };
       ok = ProcessLeaf(s, in, out, name, tally, error, cache);
       AttachFaceUnits(out, in);
     }

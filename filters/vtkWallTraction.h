@@ -241,7 +241,9 @@ public:
    * new objects are certified again, which costs less than the hash.
    * MeshCacheHits counts leaves that reused the result (ContentHits: by
    * content), MeshCacheBuilds leaves where the check ran (certificate or
-   * exact check), MeshContentHashes content hashes taken. Output arrays are
+   * exact check), MeshContentHashes content hashes taken, CellOffsetScans
+   * cell arrays whose offsets were scanned (not the same, unmodified arrays
+   * found well formed in an earlier execution). Output arrays are
    * reused when their size matches and nothing but the filter holds them
    * (reference count 1); OutputArraysReused / Allocated count arrays. Each
    * execution also makes vtkLoadIntegration's sums of every leaf in the face
@@ -252,6 +254,7 @@ public:
   vtkIdType GetMeshCacheContentHits();
   vtkIdType GetMeshCacheBuilds();
   vtkIdType GetMeshContentHashes();
+  vtkIdType GetCellOffsetScans();
   vtkIdType GetOutputArraysReused();
   vtkIdType GetOutputArraysAllocated();
   ///@}

@@ -127,6 +127,37 @@ TEST(WallTractionCache, ACertifiedMeshIsNotHashed)
   EXPECT_EQ(wt->GetMeshCacheHits(), 2);
 }
 
+TEST(WallTractionCache, OffsetsEditedInPlaceAreValidatedAgain)
+{
+  // Re-executions on the same cell arrays skip the scan of their offsets
+  // (ValidatedCells); an array edited and marked Modified() is scanned again.
+  auto s = PressureSphere(10);
+  auto wt = Traction(s);
+  Messages m;
+  m.Watch(wt);
+  wt->Update();
+  const vtkIdType first = wt->GetCellOffsetScans(); // the polys, and any other cell arrays
+  EXPECT_GE(first, 1);
+  wt->Modified();
+  wt->Update();
+  EXPECT_EQ(wt->GetCellOffsetScans(), first);
+  EXPECT_TRUE(m.Errors.empty());
+  vtkDataArray* offsets = s->GetPolys()->GetOffsetsArray();
+  const vtkIdType n = offsets->GetNumberOfValues();
+  offsets->SetComponent(n / 2, 0, offsets->GetComponent(n / 2 - 2, 0)); // decreasing
+  offsets->Modified();
+  wt->Modified();
+  wt->Update();
+  EXPECT_EQ(wt->GetCellOffsetScans(), first + 1); // the polys again
+  EXPECT_TRUE(m.ErrorContains("are malformed")) << (m.Errors.empty() ? "" : m.Errors.back());
+  // New objects (a reader's next step) are scanned.
+  auto step = Copy(PressureSphere(10));
+  wt->SetInputDataObject(step);
+  wt->Update();
+  EXPECT_GE(wt->GetCellOffsetScans(), first + 2);
+  EXPECT_EQ(Inconsistent(wt), 0);
+}
+
 TEST(WallTractionCache, AChangedMeshIsCheckedAgain)
 {
   auto s = PressureSphere(10);

@@ -26,7 +26,13 @@ every filter it checks:
   the faces' own extent the bins add up to Load Integration's area and force;
 - Sequential and STDThread backends give the same output to 1e-12;
 - clean cases: per-face forces and totals equal an independent numpy
-  computation (fuzz_oracle.py) to 1e-9 of their scale.
+  computation (fuzz_oracle.py) to 1e-9 of their scale;
+- re-execution: one Wall Traction run over three steps of the same input,
+  each step unchanged, handed over as new objects with the same content, or
+  edited in place and marked Modified() (a face reversed, a point moved, an
+  offset or a point id broken) gives what a fresh filter gives on a copy
+  (its caches: the orientation check's result, the validated offsets, the
+  output arrays).
 
 A failed check prints the seed and exits 1; `--seed N` replays one case.
 """
@@ -547,6 +553,82 @@ def run_surface_chain(rng, clean, stats):
     stats["ld_ok" if ok3 else "ld_fail"] += 1
     if ok3:
         check_load_distribution(ds, outs3, msgs3, outs2[0] if ok2 else None)
+    # Re-executions of one Wall Traction (a second child stream).
+    run_reuse(np.random.default_rng(seq.spawn(1)[0]), ws, data, stats)
+
+
+def deep_copy(data):
+    c = data.NewInstance()
+    c.DeepCopy(data)
+    return c
+
+
+def mutate_mesh(rng, data):
+    """Edit one leaf of `data` in place, as a script or a solver coupling
+    might between two steps, and mark what changed Modified(). Returns what
+    was done (for the failure message)."""
+    meshes = [ds for _, ds in leaves(data) if isinstance(ds, (vtkPolyData, vtkUnstructuredGrid))
+              and ds.GetNumberOfCells() > 0]
+    if not meshes:
+        return "nothing (no explicit mesh)"
+    ds = meshes[int(rng.integers(0, len(meshes)))]
+    cells = ds.GetPolys() if isinstance(ds, vtkPolyData) else ds.GetCells()
+    conn = cells.GetConnectivityArray() if cells is not None else None
+    offsets = cells.GetOffsetsArray() if cells is not None else None
+    kind = rng.choice(["reverse", "move", "offsets", "ids", "none"])
+    if kind in ("reverse", "offsets", "ids") and (conn is None or conn.GetNumberOfValues() < 3
+                                                  or offsets.GetNumberOfValues() < 3):
+        kind = "move"
+    if kind == "move" and ds.GetNumberOfPoints() == 0:
+        kind = "none"
+    if kind == "reverse":
+        o = vtk_to_numpy(offsets)
+        c = int(rng.integers(0, len(o) - 1))
+        ids = vtk_to_numpy(conn)
+        ids[o[c]:o[c + 1]] = ids[o[c]:o[c + 1]][::-1].copy()
+        conn.Modified()
+    elif kind == "move":
+        pts = ds.GetPoints().GetData()
+        k = int(rng.integers(0, ds.GetNumberOfPoints()))
+        for j in range(pts.GetNumberOfComponents()):
+            pts.SetComponent(k, j, pts.GetComponent(k, j) * 1.5 + 0.25)
+        pts.Modified()
+    elif kind == "offsets":
+        o = vtk_to_numpy(offsets)
+        k = int(rng.integers(1, len(o) - 1))
+        o[k] = o[k - 1] - 1 if rng.random() < 0.5 else o[-1] + 5  # decreasing, or past the end
+        offsets.Modified()
+    elif kind == "ids":
+        ids = vtk_to_numpy(conn)
+        ids[int(rng.integers(0, len(ids)))] = ds.GetNumberOfPoints() + int(rng.integers(0, 3))
+        conn.Modified()
+    ds.Modified()
+    return kind
+
+
+def run_reuse(rng, ws, data, stats):
+    """One Wall Traction re-executed over a few steps (its caches: the
+    orientation check's result, the validated cell offsets, the output
+    arrays): unchanged, new objects with the same content, and a mesh edited
+    in place. Every step must give what a fresh filter gives on a copy of
+    the same input."""
+    wt = make_wall_traction(ws)
+    current = deep_copy(data)
+    for step in range(3):
+        what = rng.choice(["again", "new objects", "edit"])
+        if step > 0 and what == "new objects":
+            current = deep_copy(current)
+        elif step > 0 and what == "edit":
+            what = "edit (%s)" % mutate_mesh(rng, current)
+        ok, outs, msgs = execute(wt, [current])
+        fresh_ok, fresh_outs, _ = execute(make_wall_traction(ws), [deep_copy(current)])
+        check(ok == fresh_ok, "re-executed Wall Traction at step %d (%s): success %s, a fresh one %s"
+              % (step, what, ok, fresh_ok))
+        if ok:
+            diff = same_numbers(numeric_output(outs[0]), numeric_output(fresh_outs[0]))
+            check(not diff, "re-executed Wall Traction at step %d (%s) differs from a fresh one: %s"
+                  % (step, what, diff))
+        stats["reuse_ok" if ok else "reuse_fail"] += 1
 
 
 def run_raw_integration(rng, clean, stats):

@@ -175,8 +175,9 @@ bool MeshResultCache::Find(
   }
   else if (e.Id.HashKnown()) // else stored by identity only (Store's byContent)
   {
-    ++this->Hashes;
-    if (now.ComputeHash() && now.SameContent(e.Id))
+    const bool hashed = now.ComputeHash();
+    this->Hashes += hashed;
+    if (hashed && now.SameContent(e.Id))
     {
       ++this->ContentHits;
       e.Id = now; // the new objects: the next step takes the fast path
@@ -201,8 +202,11 @@ void MeshResultCache::Store(std::size_t slot, vtkDataSet* ds, vtkDataArray* extr
   e.Id = MeshIdentity::Of(ds, { extra });
   if (byContent)
   {
-    ++this->Hashes;
-    e.Id.ComputeHash();
+    this->Hashes += e.Id.ComputeHash();
+  }
+  else
+  {
+    e.Id.ForgetArrays(); // identity only: no raw pointer is kept
   }
   std::copy(values, values + NumValues, e.Values);
   e.Valid = true;

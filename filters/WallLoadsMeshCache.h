@@ -75,6 +75,8 @@ public:
   bool SameObjects(const MeshIdentity& other) const;
   /// Content hash of the arrays (threaded); false if one is not contiguous.
   bool ComputeHash();
+  /// Drop the raw array pointers kept for ComputeHash (no hash will be taken).
+  void ForgetArrays() { this->Arrays.clear(); }
   bool HashKnown() const { return this->Hashed; }
   bool SameContent(const MeshIdentity& other) const
   {
@@ -86,7 +88,7 @@ private:
   std::vector<vtkWeakPointer<vtkObject>> Objects;
   std::vector<vtkMTimeType> Times;
   std::vector<bool> Present;
-  std::vector<vtkDataArray*> Arrays; ///< to hash; cleared by ComputeHash
+  std::vector<vtkDataArray*> Arrays; ///< to hash; cleared by ComputeHash or ForgetArrays
   std::vector<vtkIdType> Counts;
   std::uint64_t Hash = 0;
   bool Hashed = false;

@@ -241,47 +241,65 @@ bool CellArrayWellFormed(vtkCellArray* cells)
 }
 } // namespace
 
-ValidatedCells::Entry ValidatedCells::Of(vtkCellArray* cells)
+bool ValidatedCells::Worth(vtkCellArray* cells)
+{
+  return cells && cells->GetNumberOfCells() > 0 && cells->GetOffsetsArray() &&
+    cells->GetConnectivityArray();
+}
+
+ValidatedCells::Entry ValidatedCells::Of(vtkDataSet* ds, vtkCellArray* cells)
 {
   Entry e;
   vtkDataArray* offsets = cells->GetOffsetsArray();
   vtkDataArray* connectivity = cells->GetConnectivityArray();
   e.Offsets = offsets;
   e.Connectivity = connectivity;
-  e.OffsetsTime = offsets ? offsets->GetMTime() : 0;
-  e.ConnectivityTime = connectivity ? connectivity->GetMTime() : 0;
-  e.OffsetsSize = offsets ? offsets->GetNumberOfValues() : -1;
-  e.ConnectivitySize = connectivity ? connectivity->GetNumberOfValues() : -1;
+  e.OffsetsTime = offsets->GetMTime();
+  e.ConnectivityTime = connectivity->GetMTime();
+  e.CellsTime = cells->GetMTime();
+  e.DataSetTime = ds->vtkObject::GetMTime(); // its own, not its arrays'
+  e.OffsetsSize = offsets->GetNumberOfValues();
+  e.ConnectivitySize = connectivity->GetNumberOfValues();
   return e;
 }
 
-bool ValidatedCells::Known(vtkCellArray* cells) const
+bool ValidatedCells::Known(vtkDataSet* ds, vtkCellArray* cells) const
 {
-  if (!cells || !cells->GetOffsetsArray() || !cells->GetConnectivityArray())
+  if (!Worth(cells))
   {
     return false;
   }
-  const Entry now = Of(cells);
+  vtkDataArray* offsets = cells->GetOffsetsArray();
+  vtkDataArray* connectivity = cells->GetConnectivityArray();
   for (const Entry& e : this->Entries)
   {
     // A weak pointer turns null when its array is freed: a new array at the
     // same address never matches.
-    if (e.Offsets == now.Offsets && e.Connectivity == now.Connectivity && e.Offsets &&
-      e.Connectivity && e.OffsetsTime == now.OffsetsTime &&
-      e.ConnectivityTime == now.ConnectivityTime && e.OffsetsSize == now.OffsetsSize &&
-      e.ConnectivitySize == now.ConnectivitySize)
+    if (e.Offsets == offsets && e.Connectivity == connectivity)
     {
-      return true;
+      const Entry now = Of(ds, cells);
+      return e.OffsetsTime == now.OffsetsTime && e.ConnectivityTime == now.ConnectivityTime &&
+        e.CellsTime == now.CellsTime && e.DataSetTime == now.DataSetTime &&
+        e.OffsetsSize == now.OffsetsSize && e.ConnectivitySize == now.ConnectivitySize;
     }
   }
   return false;
 }
 
-void ValidatedCells::Remember(vtkCellArray* cells)
+void ValidatedCells::Remember(vtkDataSet* ds, vtkCellArray* cells)
 {
-  if (!cells || !cells->GetOffsetsArray() || !cells->GetConnectivityArray())
+  if (!Worth(cells))
   {
     return;
+  }
+  Entry now = Of(ds, cells);
+  for (Entry& e : this->Entries)
+  {
+    if (e.Offsets == now.Offsets && e.Connectivity == now.Connectivity)
+    {
+      e = now; // the same arrays, edited and found well formed again
+      return;
+    }
   }
   // Freed arrays first, then the oldest entries beyond the bound.
   this->Entries.erase(std::remove_if(this->Entries.begin(), this->Entries.end(),
@@ -292,7 +310,7 @@ void ValidatedCells::Remember(vtkCellArray* cells)
   {
     this->Entries.erase(this->Entries.begin());
   }
-  this->Entries.push_back(Of(cells));
+  this->Entries.push_back(now);
 }
 
 bool CheckPointIds(
@@ -318,11 +336,11 @@ bool CheckPointIds(
   }
   for (vtkCellArray* cells : arrays)
   {
-    if (validated && validated->Known(cells))
+    if (validated && validated->Known(ds, cells))
     {
       continue;
     }
-    if (validated && cells)
+    if (validated && cells && cells->GetNumberOfCells() > 0)
     {
       ++validated->Scans;
     }
@@ -330,7 +348,7 @@ bool CheckPointIds(
     {
       if (validated)
       {
-        validated->Remember(cells);
+        validated->Remember(ds, cells);
       }
     }
     else

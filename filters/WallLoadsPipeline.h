@@ -140,26 +140,31 @@ bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string&
 /**
  * Cell arrays whose offsets were found well formed, remembered by weak
  * identity, modification time and size of their offsets and connectivity
- * arrays: a filter re-executed on the same mesh (a time-step loop) does not
- * scan them again. The same rule as VTK's own cached array ranges (the point
- * id range below): an array edited in place must be marked Modified().
- * At most a few hundred entries (the oldest are forgotten).
+ * arrays, with the modification times of the cell array and of the dataset
+ * itself: a filter re-executed on the same mesh (a time-step loop) does not
+ * scan them again, while an edit marked Modified() on any of these objects
+ * is scanned. (VTK's own cached array ranges, which the point-id check below
+ * uses, follow the array's modification time only.) Cell arrays without
+ * cells are not remembered (nothing to scan; polydata share one empty array
+ * for their missing vertices, lines and strips). One entry per array pair,
+ * at most a few hundred (the oldest are forgotten).
  */
 class ValidatedCells
 {
 public:
-  bool Known(vtkCellArray* cells) const;
-  void Remember(vtkCellArray* cells);
-  vtkIdType Scans = 0; ///< cell arrays scanned by CheckPointIds (not Known)
+  bool Known(vtkDataSet* ds, vtkCellArray* cells) const;
+  void Remember(vtkDataSet* ds, vtkCellArray* cells);
+  vtkIdType Scans = 0; ///< cell arrays with cells scanned by CheckPointIds (not Known)
 
 private:
   struct Entry
   {
     vtkWeakPointer<vtkDataArray> Offsets, Connectivity;
-    vtkMTimeType OffsetsTime = 0, ConnectivityTime = 0;
+    vtkMTimeType OffsetsTime = 0, ConnectivityTime = 0, CellsTime = 0, DataSetTime = 0;
     vtkIdType OffsetsSize = 0, ConnectivitySize = 0;
   };
-  static Entry Of(vtkCellArray* cells);
+  static bool Worth(vtkCellArray* cells);
+  static Entry Of(vtkDataSet* ds, vtkCellArray* cells);
   std::vector<Entry> Entries;
 };
 

@@ -575,7 +575,7 @@ def mutate_mesh(rng, data):
     cells = ds.GetPolys() if isinstance(ds, vtkPolyData) else ds.GetCells()
     conn = cells.GetConnectivityArray() if cells is not None else None
     offsets = cells.GetOffsetsArray() if cells is not None else None
-    kind = rng.choice(["reverse", "move", "offsets", "ids", "none"])
+    kind = str(rng.choice(["reverse", "move", "offsets", "ids", "none"]))
     if kind in ("reverse", "offsets", "ids") and (conn is None or conn.GetNumberOfValues() < 3
                                                   or offsets.GetNumberOfValues() < 3):
         kind = "move"
@@ -586,24 +586,37 @@ def mutate_mesh(rng, data):
         c = int(rng.integers(0, len(o) - 1))
         ids = vtk_to_numpy(conn)
         ids[o[c]:o[c + 1]] = ids[o[c]:o[c + 1]][::-1].copy()
-        conn.Modified()
+        edited = conn
     elif kind == "move":
         pts = ds.GetPoints().GetData()
         k = int(rng.integers(0, ds.GetNumberOfPoints()))
         for j in range(pts.GetNumberOfComponents()):
             pts.SetComponent(k, j, pts.GetComponent(k, j) * 1.5 + 0.25)
-        pts.Modified()
+        edited = pts
     elif kind == "offsets":
         o = vtk_to_numpy(offsets)
         k = int(rng.integers(1, len(o) - 1))
         o[k] = o[k - 1] - 1 if rng.random() < 0.5 else o[-1] + 5  # decreasing, or past the end
-        offsets.Modified()
+        edited = offsets
     elif kind == "ids":
         ids = vtk_to_numpy(conn)
         ids[int(rng.integers(0, len(ids)))] = ds.GetNumberOfPoints() + int(rng.integers(0, 3))
-        conn.Modified()
-    ds.Modified()
-    return kind
+        edited = conn
+    else:
+        edited = None
+    # Which objects are marked Modified(): any one of the edited array, its
+    # cell array and the dataset must make the caches look again. (An edited
+    # point id must mark its array: VTK's cached range of the ids, which the
+    # point-id check reads, follows that array only.)
+    marks = {"array": edited, "cells": cells, "dataset": ds}
+    chosen = [name for name in marks if marks[name] is not None and rng.random() < 0.5]
+    if kind == "ids" and "array" not in chosen:
+        chosen.append("array")
+    if not chosen:
+        chosen = ["dataset"]
+    for name in chosen:
+        marks[name].Modified()
+    return "%s, marked %s" % (kind, "+".join(chosen))
 
 
 def run_reuse(rng, ws, data, stats):
@@ -615,10 +628,10 @@ def run_reuse(rng, ws, data, stats):
     wt = make_wall_traction(ws)
     current = deep_copy(data)
     for step in range(3):
-        what = rng.choice(["again", "new objects", "edit"])
-        if step > 0 and what == "new objects":
+        what = str(rng.choice(["again", "new objects", "edit"])) if step > 0 else "first"
+        if what == "new objects":
             current = deep_copy(current)
-        elif step > 0 and what == "edit":
+        elif what == "edit":
             what = "edit (%s)" % mutate_mesh(rng, current)
         ok, outs, msgs = execute(wt, [current])
         fresh_ok, fresh_outs, _ = execute(make_wall_traction(ws), [deep_copy(current)])

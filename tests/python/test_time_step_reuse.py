@@ -107,5 +107,7 @@ T.expect("closed: certified on every step", wt.GetMeshCacheBuilds() == 3,
 T.expect("closed: no hash taken", wt.GetMeshContentHashes() == 0,
          "hashes %d" % wt.GetMeshContentHashes())
 T.expect("closed: no open edge", T.field(wt.GetOutputDataObject(0), "Open Boundary Edges") == 0)
+T.expect("closed: no inconsistent face",
+         T.field(wt.GetOutputDataObject(0), "Inconsistently Oriented Faces") == 0)
 
 T.done("test_time_step_reuse")

@@ -19,25 +19,47 @@
 namespace wallloads
 {
 
-MeshIdentity MeshIdentity::Of(vtkDataSet* ds, std::initializer_list<vtkDataArray*> extras)
+void MeshIdentity::Hold(vtkObject* o)
 {
-  MeshIdentity id;
-  auto hold = [&id](vtkObject* o) {
-    id.Objects.emplace_back(o);
-    id.Times.push_back(o ? o->GetMTime() : 0);
-    id.Present.push_back(o != nullptr);
-  };
-  auto array = [&](vtkDataArray* a) {
-    hold(a);
-    id.Arrays.push_back(a);
-    id.Counts.push_back(a ? a->GetNumberOfValues() : -1);
-  };
+  this->Objects.emplace_back(o);
+  this->Times.push_back(o ? o->GetMTime() : 0);
+  this->Present.push_back(o != nullptr);
+}
+
+void MeshIdentity::HoldOwnTime(vtkDataSet* ds)
+{
   // The dataset's own modification time (not the one that includes its
   // arrays, which change every step): a caller that edits connectivity or
   // points in place and calls ds->Modified() is seen.
-  id.Objects.emplace_back(ds);
-  id.Times.push_back(ds->vtkObject::GetMTime());
-  id.Present.push_back(true);
+  this->Objects.emplace_back(ds);
+  this->Times.push_back(ds->vtkObject::GetMTime());
+  this->Present.push_back(true);
+}
+
+void MeshIdentity::HoldArray(vtkDataArray* a, bool toHash)
+{
+  this->Hold(a);
+  if (toHash)
+  {
+    this->Arrays.push_back(a);
+  }
+  this->Counts.push_back(a ? a->GetNumberOfValues() : -1);
+}
+
+MeshIdentity MeshIdentity::OfCells(vtkDataSet* ds, vtkCellArray* cells)
+{
+  MeshIdentity id;
+  id.HoldOwnTime(ds);
+  id.Hold(cells);
+  id.HoldArray(cells ? cells->GetOffsetsArray() : nullptr, false);
+  id.HoldArray(cells ? cells->GetConnectivityArray() : nullptr, false);
+  return id;
+}
+
+MeshIdentity MeshIdentity::Of(vtkDataSet* ds, std::initializer_list<vtkDataArray*> extras)
+{
+  MeshIdentity id;
+  id.HoldOwnTime(ds);
   id.Counts.push_back(ds->GetNumberOfPoints());
   id.Counts.push_back(ds->GetNumberOfCells());
   vtkPoints* points = nullptr;
@@ -50,25 +72,25 @@ MeshIdentity MeshIdentity::Of(vtkDataSet* ds, std::initializer_list<vtkDataArray
       id.Counts.push_back(cells ? cells->GetNumberOfCells() : 0);
     }
     vtkCellArray* polys = pd->GetPolys();
-    hold(polys);
-    array(polys ? polys->GetOffsetsArray() : nullptr);
-    array(polys ? polys->GetConnectivityArray() : nullptr);
+    id.Hold(polys);
+    id.HoldArray(polys ? polys->GetOffsetsArray() : nullptr, true);
+    id.HoldArray(polys ? polys->GetConnectivityArray() : nullptr, true);
   }
   else if (auto* ug = vtkUnstructuredGrid::SafeDownCast(ds))
   {
     points = ug->GetPoints();
     vtkCellArray* cells = ug->GetCells();
-    hold(cells);
-    array(cells ? cells->GetOffsetsArray() : nullptr);
-    array(cells ? cells->GetConnectivityArray() : nullptr);
-    array(ug->GetCellTypesArray());
+    id.Hold(cells);
+    id.HoldArray(cells ? cells->GetOffsetsArray() : nullptr, true);
+    id.HoldArray(cells ? cells->GetConnectivityArray() : nullptr, true);
+    id.HoldArray(ug->GetCellTypesArray(), true);
   }
-  hold(points);
-  array(points ? points->GetData() : nullptr);
-  array(ds->GetCellData()->GetGhostArray());
+  id.Hold(points);
+  id.HoldArray(points ? points->GetData() : nullptr, true);
+  id.HoldArray(ds->GetCellData()->GetGhostArray(), true);
   for (vtkDataArray* extra : extras)
   {
-    array(extra);
+    id.HoldArray(extra, true);
   }
   return id;
 }
@@ -219,6 +241,59 @@ void MeshResultCache::Resize(std::size_t count)
   {
     this->Entries.resize(count);
   }
+}
+
+ValidatedCells::Entry* ValidatedCells::Find(vtkCellArray* cells)
+{
+  vtkDataArray* offsets = cells->GetOffsetsArray();
+  for (Entry& e : this->Entries)
+  {
+    // A weak pointer turns null when its array is freed: a new array at the
+    // same address never matches.
+    if (e.Offsets && e.Offsets == offsets)
+    {
+      return &e;
+    }
+  }
+  return nullptr;
+}
+
+bool ValidatedCells::Known(vtkDataSet* ds, vtkCellArray* cells)
+{
+  if (!cells || cells->GetNumberOfCells() <= 0)
+  {
+    return false; // nothing to scan, nothing kept
+  }
+  const Entry* e = this->Find(cells);
+  if (e && e->Id.SameObjects(MeshIdentity::OfCells(ds, cells)))
+  {
+    return true;
+  }
+  ++this->Scans;
+  return false;
+}
+
+void ValidatedCells::Remember(vtkDataSet* ds, vtkCellArray* cells)
+{
+  if (!cells || cells->GetNumberOfCells() <= 0)
+  {
+    return;
+  }
+  if (Entry* e = this->Find(cells))
+  {
+    e->Id = MeshIdentity::OfCells(ds, cells); // edited, and found well formed again
+    return;
+  }
+  // Freed arrays first, then the oldest entries beyond the bound.
+  this->Entries.erase(std::remove_if(this->Entries.begin(), this->Entries.end(),
+                        [](const Entry& e) { return !e.Offsets; }),
+    this->Entries.end());
+  constexpr std::size_t Bound = 256;
+  if (this->Entries.size() >= Bound)
+  {
+    this->Entries.erase(this->Entries.begin());
+  }
+  this->Entries.push_back(Entry{ cells->GetOffsetsArray(), MeshIdentity::OfCells(ds, cells) });
 }
 
 vtkSmartPointer<vtkDoubleArray> OutputArrayPool::Get(

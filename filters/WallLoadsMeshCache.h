@@ -25,8 +25,8 @@
  *   surface), not after the face loop's edge-balance certificate, which
  *   reads less memory than the hash does (it needs the connectivity only,
  *   already in registers in the face loop; the hash reads points and
- *   connectivity again: about 10 ms against 7 ms on two threads at 2M
- *   faces). A certified mesh is found by identity only, and new objects
+ *   connectivity again: 8-15 ms against a median of 7 ms on two threads
+ *   at 2M faces). A certified mesh is found by identity only, and new objects
  *   are certified again in their face loop.
  *   Cached state: a few dozen bytes per leaf (no per-face state).
  *
@@ -51,6 +51,7 @@
 #include <string>
 #include <vector>
 
+class vtkCellArray;
 class vtkDataArray;
 class vtkDataSet;
 class vtkDoubleArray;
@@ -71,6 +72,10 @@ class MeshIdentity
 public:
   /// `extras` (entries may be null) are arrays the result also depends on.
   static MeshIdentity Of(vtkDataSet* ds, std::initializer_list<vtkDataArray*> extras);
+  /// What a check of `cells` (a cell array of `ds`) depends on: its offsets
+  /// and connectivity arrays, the cell array and the dataset's own time.
+  /// Identity only (no content hash).
+  static MeshIdentity OfCells(vtkDataSet* ds, vtkCellArray* cells);
   /// Same objects, unmodified since.
   bool SameObjects(const MeshIdentity& other) const;
   /// Content hash of the arrays (threaded); false if one is not contiguous.
@@ -85,6 +90,10 @@ public:
   }
 
 private:
+  void Hold(vtkObject* o);
+  void HoldOwnTime(vtkDataSet* ds); ///< the dataset, by its own time (not its arrays')
+  void HoldArray(vtkDataArray* a, bool toHash);
+
   std::vector<vtkWeakPointer<vtkObject>> Objects;
   std::vector<vtkMTimeType> Times;
   std::vector<bool> Present;
@@ -120,6 +129,36 @@ private:
     MeshIdentity Id;
     double Values[NumValues] = { 0, 0 };
   };
+  std::vector<Entry> Entries;
+};
+
+/**
+ * Cell arrays whose offsets CheckPointIds (WallLoadsPipeline.h) found well
+ * formed, each kept as MeshIdentity::OfCells: a filter re-executed on the
+ * same mesh (a time-step loop) does not scan them again, while an edit
+ * marked Modified() on the offsets, the connectivity, the cell array or the
+ * dataset is scanned. (VTK's own cached array ranges, which the point-id
+ * check uses, follow the array's modification time only.) Cell arrays
+ * without cells are not kept (nothing to scan; polydata share one empty
+ * array for their missing vertices, lines and strips). One entry per
+ * offsets array, at most a few hundred (the oldest are forgotten).
+ */
+class ValidatedCells
+{
+public:
+  /// True: found well formed before and unchanged since. False otherwise
+  /// (the caller scans; counted in Scans when it has cells).
+  bool Known(vtkDataSet* ds, vtkCellArray* cells);
+  void Remember(vtkDataSet* ds, vtkCellArray* cells);
+  vtkIdType Scans = 0; ///< cell arrays with cells that were not Known
+
+private:
+  struct Entry
+  {
+    vtkWeakPointer<vtkDataArray> Offsets; ///< the key
+    MeshIdentity Id;
+  };
+  Entry* Find(vtkCellArray* cells);
   std::vector<Entry> Entries;
 };
 

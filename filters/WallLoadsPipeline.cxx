@@ -1,5 +1,6 @@
 // SPDX-License-Identifier: BSD-3-Clause
 #include "WallLoadsPipeline.h"
+#include "WallLoadsMeshCache.h"
 
 #include "vtkAlgorithm.h"
 #include "vtkCellData.h"
@@ -241,78 +242,6 @@ bool CellArrayWellFormed(vtkCellArray* cells)
 }
 } // namespace
 
-bool ValidatedCells::Worth(vtkCellArray* cells)
-{
-  return cells && cells->GetNumberOfCells() > 0 && cells->GetOffsetsArray() &&
-    cells->GetConnectivityArray();
-}
-
-ValidatedCells::Entry ValidatedCells::Of(vtkDataSet* ds, vtkCellArray* cells)
-{
-  Entry e;
-  vtkDataArray* offsets = cells->GetOffsetsArray();
-  vtkDataArray* connectivity = cells->GetConnectivityArray();
-  e.Offsets = offsets;
-  e.Connectivity = connectivity;
-  e.OffsetsTime = offsets->GetMTime();
-  e.ConnectivityTime = connectivity->GetMTime();
-  e.CellsTime = cells->GetMTime();
-  e.DataSetTime = ds->vtkObject::GetMTime(); // its own, not its arrays'
-  e.OffsetsSize = offsets->GetNumberOfValues();
-  e.ConnectivitySize = connectivity->GetNumberOfValues();
-  return e;
-}
-
-bool ValidatedCells::Known(vtkDataSet* ds, vtkCellArray* cells) const
-{
-  if (!Worth(cells))
-  {
-    return false;
-  }
-  vtkDataArray* offsets = cells->GetOffsetsArray();
-  vtkDataArray* connectivity = cells->GetConnectivityArray();
-  for (const Entry& e : this->Entries)
-  {
-    // A weak pointer turns null when its array is freed: a new array at the
-    // same address never matches.
-    if (e.Offsets == offsets && e.Connectivity == connectivity)
-    {
-      const Entry now = Of(ds, cells);
-      return e.OffsetsTime == now.OffsetsTime && e.ConnectivityTime == now.ConnectivityTime &&
-        e.CellsTime == now.CellsTime && e.DataSetTime == now.DataSetTime &&
-        e.OffsetsSize == now.OffsetsSize && e.ConnectivitySize == now.ConnectivitySize;
-    }
-  }
-  return false;
-}
-
-void ValidatedCells::Remember(vtkDataSet* ds, vtkCellArray* cells)
-{
-  if (!Worth(cells))
-  {
-    return;
-  }
-  Entry now = Of(ds, cells);
-  for (Entry& e : this->Entries)
-  {
-    if (e.Offsets == now.Offsets && e.Connectivity == now.Connectivity)
-    {
-      e = now; // the same arrays, edited and found well formed again
-      return;
-    }
-  }
-  // Freed arrays first, then the oldest entries beyond the bound.
-  this->Entries.erase(std::remove_if(this->Entries.begin(), this->Entries.end(),
-                        [](const Entry& e) { return !e.Offsets || !e.Connectivity; }),
-    this->Entries.end());
-  constexpr std::size_t Bound = 256;
-  if (this->Entries.size() >= Bound)
-  {
-    this->Entries.erase(this->Entries.begin());
-  }
-  this->Entries.push_back(now);
-}
-
 bool CheckPointIds(
   vtkDataSet* ds, const std::string& blockName, std::string& error, ValidatedCells* validated)
 {
@@ -339,10 +268,6 @@ bool CheckPointIds(
     if (validated && validated->Known(ds, cells))
     {
       continue;
-    }
-    if (validated && cells && cells->GetNumberOfCells() > 0)
-    {
-      ++validated->Scans;
     }
     if (CellArrayWellFormed(cells))
     {

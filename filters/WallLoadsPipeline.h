@@ -10,7 +10,6 @@
 #include "vtkDataArray.h"
 #include "vtkSmartPointer.h"
 #include "vtkType.h"
-#include "vtkWeakPointer.h"
 
 #include <cstdint>
 #include <string>
@@ -137,36 +136,7 @@ vtkDataArray* FindSelectedArray(vtkDataSet* ds, const ArraySelection& sel, int w
  */
 bool CheckGhostArrays(vtkDataSet* ds, const std::string& blockName, std::string& error);
 
-/**
- * Cell arrays whose offsets were found well formed, remembered by weak
- * identity, modification time and size of their offsets and connectivity
- * arrays, with the modification times of the cell array and of the dataset
- * itself: a filter re-executed on the same mesh (a time-step loop) does not
- * scan them again, while an edit marked Modified() on any of these objects
- * is scanned. (VTK's own cached array ranges, which the point-id check below
- * uses, follow the array's modification time only.) Cell arrays without
- * cells are not remembered (nothing to scan; polydata share one empty array
- * for their missing vertices, lines and strips). One entry per array pair,
- * at most a few hundred (the oldest are forgotten).
- */
-class ValidatedCells
-{
-public:
-  bool Known(vtkDataSet* ds, vtkCellArray* cells) const;
-  void Remember(vtkDataSet* ds, vtkCellArray* cells);
-  vtkIdType Scans = 0; ///< cell arrays with cells scanned by CheckPointIds (not Known)
-
-private:
-  struct Entry
-  {
-    vtkWeakPointer<vtkDataArray> Offsets, Connectivity;
-    vtkMTimeType OffsetsTime = 0, ConnectivityTime = 0, CellsTime = 0, DataSetTime = 0;
-    vtkIdType OffsetsSize = 0, ConnectivitySize = 0;
-  };
-  static bool Worth(vtkCellArray* cells);
-  static Entry Of(vtkDataSet* ds, vtkCellArray* cells);
-  std::vector<Entry> Entries;
-};
+class ValidatedCells; // WallLoadsMeshCache.h
 
 /**
  * The cells of polydata and unstructured grids must be well formed, as VTK
@@ -176,7 +146,7 @@ private:
  * `error` set (the block, the problem, e.g. the largest id and the point
  * count) otherwise. Other dataset kinds have implicit connectivity.
  * `validated` (optional) skips the offsets of cell arrays found well formed
- * before, and remembers those found now.
+ * before, and remembers those found now (WallLoadsMeshCache.h).
  */
 bool CheckPointIds(vtkDataSet* ds, const std::string& blockName, std::string& error,
   ValidatedCells* validated = nullptr);

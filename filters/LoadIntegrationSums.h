@@ -347,7 +347,7 @@ struct SumLoop
     {
       return false;
     }
-    const FourFaces<N, P, I> faces(points, ids);
+    FourFaces<N, P, I> faces(points, ids);
     Lanes4 normal[3];
     Lanes4 faceArea;
     Lanes4 a[3];

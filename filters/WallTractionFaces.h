@@ -470,7 +470,7 @@ struct FaceLoop
   {
     const Outputs& out = this->Out;
     const Inputs& in = this->In;
-    const FourFaces<N, P, I> faces(points, ids);
+    FourFaces<N, P, I> faces(points, ids);
     Lanes4 unit[3];
     Lanes4 A;
     Lanes4 a[3];

@@ -59,7 +59,7 @@ void CompareGeometry(std::uint64_t seed)
   {
     const std::int64_t* faceIds[4] = { &ids[N * f], &ids[N * (f + 1)], &ids[N * (f + 2)],
       &ids[N * (f + 3)] };
-    const FourFaces<N, P, std::int64_t> faces(points.data(), faceIds);
+    FourFaces<N, P, std::int64_t> faces(points.data(), faceIds);
     Lanes4 normal[3];
     Lanes4 area;
     Lanes4 a[3];
@@ -102,7 +102,7 @@ TEST(Lanes, ADegenerateOrNonFiniteFaceIsRefused)
   Lanes4 area;
   Lanes4 a[3];
   {
-    const FourFaces<4, double, std::int64_t> faces(points.data(), faceIds);
+    FourFaces<4, double, std::int64_t> faces(points.data(), faceIds);
     EXPECT_TRUE(FaceNormalLanes(faces, normal, area, a));
   }
   std::vector<double> collapsed = points;
@@ -114,13 +114,13 @@ TEST(Lanes, ADegenerateOrNonFiniteFaceIsRefused)
     }
   }
   {
-    const FourFaces<4, double, std::int64_t> faces(collapsed.data(), faceIds);
+    FourFaces<4, double, std::int64_t> faces(collapsed.data(), faceIds);
     EXPECT_FALSE(FaceNormalLanes(faces, normal, area, a));
   }
   std::vector<double> nan = points;
   nan[3 * ids[12]] = std::numeric_limits<double>::quiet_NaN(); // face 3, corner 0
   {
-    const FourFaces<4, double, std::int64_t> faces(nan.data(), faceIds);
+    FourFaces<4, double, std::int64_t> faces(nan.data(), faceIds);
     EXPECT_FALSE(FaceNormalLanes(faces, normal, area, a));
   }
 }

@@ -73,20 +73,44 @@ inline void Relative(const P* p, const T o[3], T out[3])
 namespace detail
 {
 /**
+ * What pass 1 computed for a face of N corners (N = 3 or 4, known at compile
+ * time), kept for pass 2: the corners relative to corner 0 and the fan
+ * triangles' cross products. Pass 2 then reads no point again and takes no
+ * cross product again (the same values: the same operations on the same
+ * operands). N = 0 (corner count known at run time) keeps nothing.
+ */
+template <int N, typename T>
+struct Fan
+{
+  T Corner[N - 1][3]; ///< corner k + 1 relative to corner 0
+  T Cross[N - 2][3];  ///< Cross(Corner[k], Corner[k + 1])
+};
+template <typename T>
+struct Fan<0, T>
+{
+};
+
+/**
  * Pass 1 sums of the fan about corner 0: `a`, twice the area vector (the sum
  * of the fan triangles' cross products, Newell's vector), and `size2`, the
  * largest squared distance of a corner from corner 0. `corner(k, r)` gives
  * corner k (1 <= k < n) relative to corner 0. Templated on the value type:
- * double for one face, Lanes4 for four faces at once (Lanes.h).
+ * double for one face, Lanes4 for four faces at once (Lanes.h). With N > 0
+ * the corners and cross products are kept in `fan`.
  */
 template <int N, typename T, typename Corner>
-WALLLOADS_FACE_INLINE void FanAreaSums(Corner&& corner, int numIds, T a[3], T& size2)
+WALLLOADS_FACE_INLINE void FanAreaSums(
+  Corner&& corner, int numIds, T a[3], T& size2, Fan<N, T>& fan)
 {
   const int n = N > 0 ? N : numIds;
   a[0] = a[1] = a[2] = T(0);
   T prev[3];
   corner(1, prev);
   size2 = Dot(prev, prev);
+  if constexpr (N > 0)
+  {
+    Copy3(prev, fan.Corner[0]);
+  }
   for (int k = 2; k < n; ++k)
   {
     T cur[3];
@@ -98,9 +122,12 @@ WALLLOADS_FACE_INLINE void FanAreaSums(Corner&& corner, int numIds, T a[3], T& s
     a[2] += c[2];
     const T d2 = Dot(cur, cur);
     size2 = Larger(d2, size2);
-    prev[0] = cur[0];
-    prev[1] = cur[1];
-    prev[2] = cur[2];
+    if constexpr (N > 0)
+    {
+      Copy3(cur, fan.Corner[k - 1]);
+      Copy3(c, fan.Cross[k - 2]);
+    }
+    Copy3(cur, prev);
   }
 }
 
@@ -121,27 +148,41 @@ WALLLOADS_FACE_INLINE void NormalAndArea(const T a[3], const T& twiceArea, T nor
  * a warped face gets the centroid of its projection's fan).
  */
 template <int N, typename T, typename Corner>
-WALLLOADS_FACE_INLINE void FanCentroid(Corner&& corner, int numIds, const T nhat[3], T centroid[3])
+WALLLOADS_FACE_INLINE void FanCentroid(
+  Corner&& corner, int numIds, const Fan<N, T>& fan, const T nhat[3], T centroid[3])
 {
   const int n = N > 0 ? N : numIds;
   T cw[3] = { T(0), T(0), T(0) };
   T w = T(0);
   T prev[3];
-  corner(1, prev);
+  if constexpr (N > 0)
+  {
+    Copy3(fan.Corner[0], prev);
+  }
+  else
+  {
+    corner(1, prev);
+  }
   for (int k = 2; k < n; ++k)
   {
     T cur[3];
-    corner(k, cur);
     T c[3];
-    Cross(prev, cur, c);
+    if constexpr (N > 0)
+    {
+      Copy3(fan.Corner[k - 1], cur);
+      Copy3(fan.Cross[k - 2], c);
+    }
+    else
+    {
+      corner(k, cur);
+      Cross(prev, cur, c);
+    }
     const T wt = Dot(c, nhat);
     w += wt;
     cw[0] += wt * (prev[0] + cur[0]);
     cw[1] += wt * (prev[1] + cur[1]);
     cw[2] += wt * (prev[2] + cur[2]);
-    prev[0] = cur[0];
-    prev[1] = cur[1];
-    prev[2] = cur[2];
+    Copy3(cur, prev);
   }
   const T invW = T(1) / (T(3) * w);
   centroid[0] = cw[0] * invW;
@@ -152,12 +193,13 @@ WALLLOADS_FACE_INLINE void FanCentroid(Corner&& corner, int numIds, const T nhat
 /// Pass 1 of ComputeFaceFrame for `N` corners (N = 0: `numIds` at run time).
 template <int N, typename T, typename P, typename I>
 WALLLOADS_FACE_INLINE FaceStatus FaceNormalPass(const P* points, const I* ids, int numIds,
-  T normal[3], T& area, T relativeAreaTolerance, T a[3])
+  T normal[3], T& area, T relativeAreaTolerance, T a[3], Fan<N, T>& fan)
 {
   const P* p0 = points + 3 * ids[0];
   const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
   T size2;
-  FanAreaSums<N>([&](int k, T r[3]) { Relative(points + 3 * ids[k], o, r); }, numIds, a, size2);
+  FanAreaSums<N>(
+    [&](int k, T r[3]) { Relative(points + 3 * ids[k], o, r); }, numIds, a, size2, fan);
   if (!AllFinite(a, 3) || !AllFinite(o, 3))
   {
     return FaceStatus::NonFinite;
@@ -185,13 +227,22 @@ WALLLOADS_FACE_INLINE FaceStatus ComputeFaceNormal(const P* points, const I* ids
   switch (numIds)
   {
     case 3:
-      return detail::FaceNormalPass<3>(points, ids, 3, normal, area, relativeAreaTolerance, a);
+    {
+      detail::Fan<3, T> fan;
+      return detail::FaceNormalPass<3>(points, ids, 3, normal, area, relativeAreaTolerance, a, fan);
+    }
     case 4:
-      return detail::FaceNormalPass<4>(points, ids, 4, normal, area, relativeAreaTolerance, a);
+    {
+      detail::Fan<4, T> fan;
+      return detail::FaceNormalPass<4>(points, ids, 4, normal, area, relativeAreaTolerance, a, fan);
+    }
     default:
-      return numIds < 3
-        ? FaceStatus::TooFewPoints
-        : detail::FaceNormalPass<0>(points, ids, numIds, normal, area, relativeAreaTolerance, a);
+    {
+      detail::Fan<0, T> none;
+      return numIds < 3 ? FaceStatus::TooFewPoints
+                        : detail::FaceNormalPass<0>(
+                            points, ids, numIds, normal, area, relativeAreaTolerance, a, none);
+    }
   }
 }
 
@@ -203,8 +254,9 @@ WALLLOADS_FACE_INLINE FaceStatus FaceFramePass(
   const P* points, const I* ids, int numIds, FaceFrame<T>& frame, T relativeAreaTolerance)
 {
   T a[3];
-  const FaceStatus status =
-    FaceNormalPass<N>(points, ids, numIds, frame.Normal, frame.Area, relativeAreaTolerance, a);
+  Fan<N, T> fan;
+  const FaceStatus status = FaceNormalPass<N>(
+    points, ids, numIds, frame.Normal, frame.Area, relativeAreaTolerance, a, fan);
   if (status != FaceStatus::Ok)
   {
     return status;
@@ -213,7 +265,7 @@ WALLLOADS_FACE_INLINE FaceStatus FaceFramePass(
   const T o[3] = { T(p0[0]), T(p0[1]), T(p0[2]) };
   T c[3];
   FanCentroid<N>(
-    [&](int k, T r[3]) { Relative(points + 3 * ids[k], o, r); }, numIds, frame.Normal, c);
+    [&](int k, T r[3]) { Relative(points + 3 * ids[k], o, r); }, numIds, fan, frame.Normal, c);
   for (int k = 0; k < 3; ++k)
   {
     frame.AreaVector[k] = T(0.5) * a[k];
@@ -271,6 +323,7 @@ struct FourFaces
   const P* Points;
   const I* const* Ids; ///< four id lists of N corners
   Lanes4 Origin[3];    ///< corner 0 of each face
+  detail::Fan<N, Lanes4> Kept; ///< pass 1's corners and cross products (FaceNormalLanes)
 
   WALLLOADS_FACE_INLINE FourFaces(const P* points, const I* const ids[4])
     : Points(points)
@@ -300,15 +353,16 @@ struct FourFaces
 
 /**
  * ComputeFaceNormal for four faces of N corners: true when all four are Ok,
- * each lane then holding the values the scalar function gives its face;
+ * each lane then holding the values the scalar function gives its face
+ * (and `faces` what FaceCentroidLanes needs from this pass);
  * false when any is not (the caller then takes the faces one by one).
  */
 template <int N, typename P, typename I>
-WALLLOADS_FACE_INLINE bool FaceNormalLanes(const FourFaces<N, P, I>& faces, Lanes4 normal[3],
+WALLLOADS_FACE_INLINE bool FaceNormalLanes(FourFaces<N, P, I>& faces, Lanes4 normal[3],
   Lanes4& area, Lanes4 a[3], double relativeAreaTolerance = 1e-14)
 {
   Lanes4 size2;
-  detail::FanAreaSums<N>(faces, N, a, size2);
+  detail::FanAreaSums<N>(faces, N, a, size2, faces.Kept);
   const Lanes4* o = faces.Origin;
   if (!AllLanes(FiniteLanes(a[0]) & FiniteLanes(a[1]) & FiniteLanes(a[2]) & FiniteLanes(o[0]) &
         FiniteLanes(o[1]) & FiniteLanes(o[2])))
@@ -325,13 +379,13 @@ WALLLOADS_FACE_INLINE bool FaceNormalLanes(const FourFaces<N, P, I>& faces, Lane
 }
 
 /// The area centroid of ComputeFaceFrame for four faces whose normals
-/// FaceNormalLanes gave (the same values, lane by lane).
+/// FaceNormalLanes gave, from what it kept (the same values, lane by lane).
 template <int N, typename P, typename I>
 WALLLOADS_FACE_INLINE void FaceCentroidLanes(
   const FourFaces<N, P, I>& faces, const Lanes4 normal[3], Lanes4 centroid[3])
 {
   Lanes4 c[3];
-  detail::FanCentroid<N>(faces, N, normal, c);
+  detail::FanCentroid<N>(faces, N, faces.Kept, normal, c);
   for (int k = 0; k < 3; ++k)
   {
     centroid[k] = faces.Origin[k] + c[k];

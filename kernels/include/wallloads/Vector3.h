@@ -19,6 +19,14 @@ namespace wallloads
 {
 
 template <typename T>
+WALLLOADS_FACE_INLINE void Copy3(const T from[3], T to[3])
+{
+  to[0] = from[0];
+  to[1] = from[1];
+  to[2] = from[2];
+}
+
+template <typename T>
 WALLLOADS_FACE_INLINE T Dot(const T a[3], const T b[3])
 {
   return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];

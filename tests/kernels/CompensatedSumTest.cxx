@@ -48,3 +48,23 @@ TEST(CompensatedSum, MergeIsIndependentOfSplit)
     EXPECT_NEAR(merged.Value(), whole.Value(), 2e-16 * std::abs(whole.Value())) << parts;
   }
 }
+
+// A count added without compensation is exact (integers below 2^53 add
+// exactly in binary64, IEEE 754-2019 §3.3), so its carry stays 0 and the
+// value equals the compensated count, to the last bit, past 2^24 and 2^32.
+TEST(CompensatedSum, UncompensatedCountIsExact)
+{
+  CompensatedSum<double> plain;
+  CompensatedSum<double> compensated;
+  const double start = 4294967296.0 - 1000.0; // 2^32 - 1000
+  plain.AddUncompensated(start);
+  compensated.Add(start);
+  for (int i = 0; i < 3000; ++i)
+  {
+    plain.AddUncompensated(1.0);
+    compensated.Add(1.0);
+  }
+  EXPECT_EQ(plain.Carry, 0.0);
+  EXPECT_EQ(plain.Value(), 4294967296.0 + 2000.0);
+  EXPECT_EQ(plain.Value(), compensated.Value());
+}

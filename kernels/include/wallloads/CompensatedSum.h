@@ -34,6 +34,11 @@ struct CompensatedSum
     this->Sum = t;
   }
 
+  /// An addition that needs no compensation: a count (integers below 2^53
+  /// add exactly, so the carry would stay 0) or a scale compared with a
+  /// tolerance (LoadTotals.h). One operation instead of seven.
+  WALLLOADS_FACE_INLINE void AddUncompensated(const T& value) { this->Sum += value; }
+
   void Merge(const CompensatedSum& other)
   {
     this->Add(other.Sum);
@@ -50,6 +55,10 @@ struct CompensatedSums
   CompensatedSum<T> Terms[N];
 
   WALLLOADS_FACE_INLINE void Add(std::size_t i, const T& value) { this->Terms[i].Add(value); }
+  WALLLOADS_FACE_INLINE void AddUncompensated(std::size_t i, const T& value)
+  {
+    this->Terms[i].AddUncompensated(value);
+  }
   void Merge(const CompensatedSums& other)
   {
     for (std::size_t i = 0; i < N; ++i)

@@ -51,12 +51,12 @@ struct LoadSums
       this->Sums.Add(PressureMomentSlot + i, mp[i]);
       this->Sums.Add(ViscousMomentSlot + i, mv[i]);
     }
-    this->Sums.Add(FaceCountSlot, T(1));
+    this->Sums.AddUncompensated(FaceCountSlot, T(1));
     const T f[3] = { fp[0] + fv[0], fp[1] + fv[1], fp[2] + fv[2] };
-    this->Sums.Add(ForceMagnitudeSlot, Norm(f));
+    this->Sums.AddUncompensated(ForceMagnitudeSlot, Norm(f));
   }
 
-  WALLLOADS_FACE_INLINE void AddSkipped() { this->Sums.Add(SkippedCountSlot, T(1)); }
+  WALLLOADS_FACE_INLINE void AddSkipped() { this->Sums.AddUncompensated(SkippedCountSlot, T(1)); }
   void Merge(const LoadSums& other) { this->Sums.Merge(other.Sums); }
 };
 

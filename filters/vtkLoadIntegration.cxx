@@ -287,11 +287,29 @@ void WarnNonFinite(vtkLoadIntegration* self, const RegionLoads<double>& total, b
 }
 } // namespace
 
+/// What is kept between executions: the cell arrays whose offsets were
+/// found well formed (WallLoadsMeshCache.h).
+struct vtkLoadIntegration::Internals
+{
+  wallloads::ValidatedCells Cells;
+};
+
 //------------------------------------------------------------------------------
 vtkLoadIntegration::vtkLoadIntegration()
+  : Cache(new Internals)
 {
   this->SetNumberOfOutputPorts(3);
   this->SetInputArrayToProcess(REGION_ARRAY, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "");
+}
+
+vtkLoadIntegration::~vtkLoadIntegration()
+{
+  delete this->Cache;
+}
+
+vtkIdType vtkLoadIntegration::GetCellOffsetScans()
+{
+  return this->Cache->Cells.Scans;
 }
 
 //------------------------------------------------------------------------------
@@ -479,7 +497,8 @@ int vtkLoadIntegration::RequestData(
     // summed here, after the same check.
     in.Handed = error.empty() && !regionSel.Set() &&
       FindHandedLoadSums(ds, in.ForcePArray, in.ForceVArray, in.AreaArray, in.HandedSums);
-    if (error.empty() && !in.Handed && !CheckPointIds(ds, leaves[i].Name, error))
+    if (error.empty() && !in.Handed &&
+      !CheckPointIds(ds, leaves[i].Name, error, &this->Cache->Cells))
     {
       continue;
     }

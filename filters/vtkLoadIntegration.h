@@ -156,6 +156,11 @@ public:
   vtkGetMacro(LeavesSummed, vtkIdType);
   ///@}
 
+  /// Scans of cell offsets made by leaves summed here, over this filter's
+  /// lifetime: a cell array unchanged since its last scan (the same objects,
+  /// not marked Modified()) is not scanned again (for tests).
+  vtkIdType GetCellOffsetScans();
+
   /// SI unit of a WallLoads output name (column, array or field value; "-"
   /// for dimensionless), or nullptr for other names.
   static const char* GetColumnUnit(const char* name);
@@ -168,7 +173,7 @@ public:
 
 protected:
   vtkLoadIntegration();
-  ~vtkLoadIntegration() override = default;
+  ~vtkLoadIntegration() override;
 
   int FillInputPortInformation(int port, vtkInformation* info) override;
   int FillOutputPortInformation(int port, vtkInformation* info) override;
@@ -187,6 +192,8 @@ protected:
   vtkIdType LeavesSummed = 0;
 
 private:
+  struct Internals; ///< what is kept between executions
+  Internals* Cache;
   vtkLoadIntegration(const vtkLoadIntegration&) = delete;
   void operator=(const vtkLoadIntegration&) = delete;
 };

@@ -7,6 +7,7 @@
 // matches a handed entry.
 #include "FilterTestUtilities.h"
 
+#include "vtkCellArray.h"
 #include "vtkCellData.h"
 #include "vtkDataArray.h"
 #include "vtkLoadIntegration.h"
@@ -217,4 +218,39 @@ TEST(LoadSumsHandOver, TimeStepsAndRegionArray)
     vtkLoadIntegration::REGION_ARRAY, 0, 0, vtkDataObject::FIELD_ASSOCIATION_CELLS, "zone");
   li->Update();
   EXPECT_EQ(li->GetLeavesSummed(), 1);
+}
+
+TEST(LoadSumsHandOver, OwnSummationScansUnchangedOffsetsOnce)
+{
+  // Load Integration summing the faces itself (a copy of Wall Traction's
+  // output) keeps the cell arrays it found well formed (ValidatedCells): a
+  // re-execution does not scan them again; an edit marked Modified() is
+  // scanned and reported.
+  auto wt = Traction(Body());
+  wt->Update();
+  auto copy = DeepCopy(wt->GetOutputDataObject(0));
+  auto li = Integrate(copy.Get());
+  EXPECT_EQ(li->GetLeavesSummed(), 1);
+  EXPECT_EQ(li->GetCellOffsetScans(), 1);
+  const double fx = Field(li->GetOutputDataObject(0), "Pressure Force", 0);
+  li->SetMomentCentre(0, 0, 0);
+  li->Update();
+  EXPECT_EQ(li->GetLeavesSummed(), 2);
+  EXPECT_EQ(li->GetCellOffsetScans(), 1);
+  // The same faces summed again (a force does not depend on the moment
+  // centre), to round-off of the terms (2e5 Pa datum over the body's area).
+  const double scale = 2e5 * Field(li->GetOutputDataObject(0), "Area") * 3;
+  EXPECT_NEAR(Field(li->GetOutputDataObject(0), "Pressure Force", 0), fx, 1e-14 * scale);
+  Messages m;
+  m.Watch(li);
+  vtkPolyData* pd = vtkPolyData::SafeDownCast(copy);
+  ASSERT_NE(pd, nullptr);
+  vtkDataArray* offsets = pd->GetPolys()->GetOffsetsArray();
+  const vtkIdType n = offsets->GetNumberOfValues();
+  offsets->SetComponent(n / 2, 0, offsets->GetComponent(n / 2 - 2, 0)); // decreasing
+  offsets->Modified();
+  li->Modified();
+  li->Update();
+  EXPECT_EQ(li->GetCellOffsetScans(), 2);
+  EXPECT_TRUE(m.ErrorContains("are malformed"));
 }

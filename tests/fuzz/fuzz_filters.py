@@ -554,12 +554,14 @@ def run_surface_chain(rng, clean, stats):
     if ok3:
         check_load_distribution(ds, outs3, msgs3, outs2[0] if ok2 else None)
     # Re-executions of one Wall Traction (a second child stream).
-    run_reuse(np.random.default_rng(seq.spawn(1)[0]), ws, data, stats)
+    run_reexecutions(np.random.default_rng(seq.spawn(1)[0]), "Wall Traction",
+                     lambda: make_wall_traction(ws), data, stats)
     # Re-executions of one Load Integration summing the faces of a copy of
     # Wall Traction's output itself (new objects: nothing handed over), from a
     # third child stream.
     if ok2:
-        run_integration_reuse(np.random.default_rng(seq.spawn(1)[0]), ls, wt_out, stats)
+        run_reexecutions(np.random.default_rng(seq.spawn(1)[0]), "Load Integration",
+                         lambda: make_load_integration(ls), wt_out, stats)
 
 
 def deep_copy(data):
@@ -624,13 +626,13 @@ def mutate_mesh(rng, data):
     return "%s, marked %s" % (kind, "+".join(chosen))
 
 
-def run_reuse(rng, ws, data, stats):
-    """One Wall Traction re-executed over a few steps (its caches: the
-    orientation check's result, the validated cell offsets, the output
-    arrays): unchanged, new objects with the same content, and a mesh edited
-    in place. Every step must give what a fresh filter gives on a copy of
-    the same input."""
-    wt = make_wall_traction(ws)
+def run_reexecutions(rng, name, make_alg, data, stats):
+    """One filter (made by `make_alg`) re-executed over a few steps of `data`
+    (its caches: the orientation check's result, the validated cell offsets,
+    the output arrays): unchanged, new objects with the same content, and a
+    mesh edited in place. Every step must give, on every output, what a fresh
+    filter gives on a copy of the same input."""
+    alg = make_alg()
     current = deep_copy(data)
     for step in range(3):
         what = str(rng.choice(["again", "new objects", "edit"])) if step > 0 else "first"
@@ -638,41 +640,16 @@ def run_reuse(rng, ws, data, stats):
             current = deep_copy(current)
         elif what == "edit":
             what = "edit (%s)" % mutate_mesh(rng, current)
-        ok, outs, msgs = execute(wt, [current])
-        fresh_ok, fresh_outs, _ = execute(make_wall_traction(ws), [deep_copy(current)])
-        check(ok == fresh_ok, "re-executed Wall Traction at step %d (%s): success %s, a fresh one %s"
-              % (step, what, ok, fresh_ok))
-        if ok:
-            diff = same_numbers(numeric_output(outs[0]), numeric_output(fresh_outs[0]))
-            check(not diff, "re-executed Wall Traction at step %d (%s) differs from a fresh one: %s"
-                  % (step, what, diff))
-        stats["reuse_ok" if ok else "reuse_fail"] += 1
-
-
-def run_integration_reuse(rng, ls, data, stats):
-    """One Load Integration summing the faces itself (on a copy of Wall
-    Traction's output, so nothing is handed over) re-executed over a few steps (its cache: the validated cell offsets):
-    unchanged, new objects with the same content, and a mesh edited in place.
-    Every step must give, on every output, what a fresh filter gives on a
-    copy of the same input."""
-    li = make_load_integration(ls)
-    current = deep_copy(data)
-    for step in range(3):
-        what = str(rng.choice(["again", "new objects", "edit"])) if step > 0 else "first"
-        if what == "new objects":
-            current = deep_copy(current)
-        elif what == "edit":
-            what = "edit (%s)" % mutate_mesh(rng, current)
-        ok, outs, msgs = execute(li, [current])
-        fresh_ok, fresh_outs, _ = execute(make_load_integration(ls), [deep_copy(current)])
-        check(ok == fresh_ok, "re-executed Load Integration at step %d (%s): success %s, a fresh one %s"
-              % (step, what, ok, fresh_ok))
+        ok, outs, msgs = execute(alg, [current])
+        fresh_ok, fresh_outs, _ = execute(make_alg(), [deep_copy(current)])
+        check(ok == fresh_ok, "re-executed %s at step %d (%s): success %s, a fresh one %s"
+              % (name, step, what, ok, fresh_ok))
         if ok:
             for port, (a, b) in enumerate(zip(outs, fresh_outs)):
                 diff = same_numbers(numeric_output(a), numeric_output(b))
-                check(not diff, "re-executed Load Integration at step %d (%s), output %d, differs from a"
-                      " fresh one: %s" % (step, what, port, diff))
-        stats["li_reuse_ok" if ok else "li_reuse_fail"] += 1
+                check(not diff, "re-executed %s at step %d (%s), output %d, differs from a fresh one: %s"
+                      % (name, step, what, port, diff))
+        stats["%s reuse %s" % (name, "ok" if ok else "fail")] += 1
 
 
 def run_raw_integration(rng, clean, stats):

@@ -205,6 +205,10 @@ bool MeshResultCache::Find(
       e.Id = now; // the new objects: the next step takes the fast path
       found = true;
     }
+    else if (hashed)
+    {
+      e.Probe = now; // a changed mesh: Store, after the check, takes this hash
+    }
   }
   if (found)
   {
@@ -222,7 +226,11 @@ void MeshResultCache::Store(std::size_t slot, vtkDataSet* ds, vtkDataArray* extr
   }
   Entry& e = this->Entries[slot];
   e.Id = MeshIdentity::Of(ds, { extra });
-  if (byContent)
+  if (byContent && e.Probe.HashKnown() && e.Probe.SameObjects(e.Id))
+  {
+    e.Id = e.Probe; // hashed by Find in this execution, the same objects unchanged since
+  }
+  else if (byContent)
   {
     this->Hashes += e.Id.ComputeHash();
   }
@@ -230,6 +238,7 @@ void MeshResultCache::Store(std::size_t slot, vtkDataSet* ds, vtkDataArray* extr
   {
     e.Id.ForgetArrays(); // identity only: no raw pointer is kept
   }
+  e.Probe = MeshIdentity();
   std::copy(values, values + NumValues, e.Values);
   e.Valid = true;
   ++this->Builds;

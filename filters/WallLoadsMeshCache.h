@@ -128,6 +128,9 @@ private:
     bool Valid = false;
     MeshIdentity Id;
     double Values[NumValues] = { 0, 0 };
+    /// A mesh Find hashed and did not match (hash known, no raw pointers):
+    /// Store takes its hash instead of hashing the same objects again.
+    MeshIdentity Probe;
   };
   std::vector<Entry> Entries;
 };

@@ -102,6 +102,39 @@ TEST(WallTractionCache, NewObjectsWithTheSameMeshAreFoundByContent)
   EXPECT_EQ(wt->GetMeshContentHashes(), 2);
 }
 
+TEST(WallTractionCache, AChangedOpenMeshIsHashedOnce)
+{
+  // New objects with a different mesh (a moved point): Find hashes them to
+  // compare, the exact check runs, and Store keeps that hash instead of
+  // hashing the same objects a second time.
+  auto s = PressureSphere(10);
+  s->BuildCells();
+  s->DeleteCell(40);
+  s->RemoveDeletedCells();
+  auto wt = Traction(s);
+  wt->Update();
+  EXPECT_EQ(wt->GetMeshContentHashes(), 1);
+  auto moved = Copy(s);
+  double p[3];
+  moved->GetPoint(7, p);
+  p[0] *= 1.01;
+  moved->GetPoints()->SetPoint(7, p);
+  wt->SetInputDataObject(moved);
+  wt->Update();
+  EXPECT_EQ(wt->GetMeshCacheBuilds(), 2);
+  EXPECT_EQ(wt->GetMeshCacheContentHits(), 0);
+  EXPECT_EQ(wt->GetMeshContentHashes(), 2);
+  EXPECT_EQ(OpenEdges(wt), 4);
+  // The kept hash is the moved mesh's: its next step (new objects, the same
+  // content) is found by content.
+  wt->SetInputDataObject(Copy(moved));
+  wt->Update();
+  EXPECT_EQ(wt->GetMeshCacheBuilds(), 2);
+  EXPECT_EQ(wt->GetMeshCacheContentHits(), 1);
+  EXPECT_EQ(wt->GetMeshContentHashes(), 3);
+  EXPECT_EQ(OpenEdges(wt), 4);
+}
+
 TEST(WallTractionCache, ACertifiedMeshIsNotHashed)
 {
   // A closed, consistent surface is certified in the face loop; a hash

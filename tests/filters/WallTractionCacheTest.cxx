@@ -38,6 +38,17 @@ vtkSmartPointer<vtkPolyData> PressureSphere(double p0)
   return s;
 }
 
+/// The sphere with one face removed (four open edges): an open surface,
+/// which takes the exact check and whose result is hashed.
+vtkSmartPointer<vtkPolyData> OpenPressureSphere(double p0)
+{
+  auto s = PressureSphere(p0);
+  s->BuildCells();
+  s->DeleteCell(40);
+  s->RemoveDeletedCells();
+  return s;
+}
+
 vtkSmartPointer<vtkPolyData> Copy(vtkPolyData* pd)
 {
   auto c = vtkSmartPointer<vtkPolyData>::New();
@@ -77,10 +88,7 @@ TEST(WallTractionCache, NewObjectsWithTheSameMeshAreFoundByContent)
 {
   // An open surface (one face removed: four open edges) takes the exact
   // check, and its result is hashed for later steps.
-  auto s = PressureSphere(10);
-  s->BuildCells();
-  s->DeleteCell(40);
-  s->RemoveDeletedCells();
+  auto s = OpenPressureSphere(10);
   auto wt = Traction(s);
   wt->Update();
   EXPECT_EQ(OpenEdges(wt), 4);
@@ -107,10 +115,7 @@ TEST(WallTractionCache, AChangedOpenMeshIsHashedOnce)
   // New objects with a different mesh (a moved point): Find hashes them to
   // compare, the exact check runs, and Store keeps that hash instead of
   // hashing the same objects a second time.
-  auto s = PressureSphere(10);
-  s->BuildCells();
-  s->DeleteCell(40);
-  s->RemoveDeletedCells();
+  auto s = OpenPressureSphere(10);
   auto wt = Traction(s);
   wt->Update();
   EXPECT_EQ(wt->GetMeshContentHashes(), 1);

@@ -1,8 +1,11 @@
 // SPDX-License-Identifier: BSD-3-Clause
-// The four-face kernels (Lanes.h) against the scalar ones they are built
-// from: every lane must hold exactly the scalar result of its face. Exact
-// equality is the specification here, not a tolerance: both are the same
-// IEEE operations in the same order, compared within one binary.
+// The lane kernels (Lanes.h: four faces at a time in the AVX2 loops, eight
+// in the AVX-512 ones) against the scalar ones they are built from: every
+// lane must hold exactly the scalar result of its face. Exact equality is
+// the specification here, not a tolerance: both are the same IEEE
+// operations in the same order, compared within one binary. The eight-lane
+// checks run in functions compiled for AVX-512, as the face loop is, and
+// are skipped on processors without it.
 #include "wallloads/CompensatedSum.h"
 #include "wallloads/FaceGeometry.h"
 #include "wallloads/Lanes.h"
@@ -12,6 +15,7 @@
 
 #include <cstdint>
 #include <cstring>
+#include <limits>
 #include <random>
 #include <vector>
 
@@ -48,25 +52,32 @@ void RandomFaces(int n, int count, std::mt19937_64& rng, std::vector<P>& points,
   }
 }
 
-template <int N, typename P>
-void CompareGeometry(std::uint64_t seed)
+/// Inlined into its caller, so that the eight-lane instantiation is
+/// compiled for AVX-512 as the face loop is.
+#define LANES_TEST_INLINE inline __attribute__((always_inline))
+
+template <int W, int N, typename P>
+LANES_TEST_INLINE void CompareGeometry(std::uint64_t seed)
 {
   std::mt19937_64 rng(seed);
   std::vector<P> points;
   std::vector<std::int64_t> ids;
   RandomFaces<P>(N, 400, rng, points, ids);
-  for (int f = 0; f + 4 <= 400; f += 4)
+  for (int f = 0; f + W <= 400; f += W)
   {
-    const std::int64_t* faceIds[4] = { &ids[N * f], &ids[N * (f + 1)], &ids[N * (f + 2)],
-      &ids[N * (f + 3)] };
-    FourFaces<N, P, std::int64_t> faces(points.data(), faceIds);
-    Lanes4 normal[3];
-    Lanes4 area;
-    Lanes4 a[3];
+    const std::int64_t* faceIds[W];
+    for (int j = 0; j < W; ++j)
+    {
+      faceIds[j] = &ids[N * (f + j)];
+    }
+    LaneFaces<W, N, P, std::int64_t> faces(points.data(), faceIds);
+    Lanes<W> normal[3];
+    Lanes<W> area;
+    Lanes<W> a[3];
     ASSERT_TRUE(FaceNormalLanes(faces, normal, area, a));
-    Lanes4 centroid[3];
+    Lanes<W> centroid[3];
     FaceCentroidLanes(faces, normal, centroid);
-    for (int j = 0; j < 4; ++j)
+    for (int j = 0; j < W; ++j)
     {
       FaceFrame<double> frame;
       ASSERT_EQ(ComputeFaceFrameFast<double>(points.data(), faceIds[j], N, frame), FaceStatus::Ok);
@@ -80,80 +91,103 @@ void CompareGeometry(std::uint64_t seed)
     }
   }
 }
-} // namespace
 
-TEST(Lanes, TrianglesAndQuadsEqualTheScalarFrame)
-{
-  CompareGeometry<3, double>(1);
-  CompareGeometry<4, double>(2);
-  CompareGeometry<3, float>(3);
-  CompareGeometry<4, float>(4);
-}
-
-// One face outside the common case sends all four back to the scalar path.
-TEST(Lanes, ADegenerateOrNonFiniteFaceIsRefused)
+/// One face outside the common case (degenerate, or a NaN corner) sends the
+/// whole run back to the scalar path.
+template <int W>
+LANES_TEST_INLINE void RefuseUncommonFaces()
 {
   std::mt19937_64 rng(5);
   std::vector<double> points;
   std::vector<std::int64_t> ids;
-  RandomFaces<double>(4, 4, rng, points, ids);
-  const std::int64_t* faceIds[4] = { &ids[0], &ids[4], &ids[8], &ids[12] };
-  Lanes4 normal[3];
-  Lanes4 area;
-  Lanes4 a[3];
+  RandomFaces<double>(4, W, rng, points, ids);
+  const std::int64_t* faceIds[W];
+  for (int j = 0; j < W; ++j)
   {
-    FourFaces<4, double, std::int64_t> faces(points.data(), faceIds);
+    faceIds[j] = &ids[4 * j];
+  }
+  Lanes<W> normal[3];
+  Lanes<W> area;
+  Lanes<W> a[3];
+  {
+    LaneFaces<W, 4, double, std::int64_t> faces(points.data(), faceIds);
     EXPECT_TRUE(FaceNormalLanes(faces, normal, area, a));
   }
+  const int collapsedFace = W - 2;
   std::vector<double> collapsed = points;
-  for (int k = 1; k < 4; ++k) // face 2 collapses onto its first corner
+  for (int k = 1; k < 4; ++k) // that face collapses onto its first corner
   {
     for (int d = 0; d < 3; ++d)
     {
-      collapsed[3 * ids[8 + k] + d] = collapsed[3 * ids[8] + d];
+      collapsed[3 * ids[4 * collapsedFace + k] + d] = collapsed[3 * ids[4 * collapsedFace] + d];
     }
   }
   {
-    FourFaces<4, double, std::int64_t> faces(collapsed.data(), faceIds);
+    LaneFaces<W, 4, double, std::int64_t> faces(collapsed.data(), faceIds);
     EXPECT_FALSE(FaceNormalLanes(faces, normal, area, a));
   }
   std::vector<double> nan = points;
-  nan[3 * ids[12]] = std::numeric_limits<double>::quiet_NaN(); // face 3, corner 0
+  nan[3 * ids[4 * (W - 1)]] = std::numeric_limits<double>::quiet_NaN(); // last face, corner 0
   {
-    FourFaces<4, double, std::int64_t> faces(nan.data(), faceIds);
+    LaneFaces<W, 4, double, std::int64_t> faces(nan.data(), faceIds);
     EXPECT_FALSE(FaceNormalLanes(faces, normal, area, a));
   }
+}
+
+/// Norm in every range: plain, near overflow, near underflow, zero (lane j
+/// takes case j % 4).
+template <int W>
+LANES_TEST_INLINE void CompareNorms()
+{
+  const double cases[4][3] = { { 3, 4, 12 }, { 1e200, 1e200, 0 }, { 1e-200, 0, 0 },
+    { 0, 0, 0 } };
+  Lanes<W> v[3];
+  for (int k = 0; k < 3; ++k)
+  {
+    v[k] = Lanes<W>::Gather([&](int j) { return cases[j % 4][k]; });
+  }
+  const Lanes<W> n = Norm(v);
+  for (int j = 0; j < W; ++j)
+  {
+    EXPECT_TRUE(Same(n[j], Norm(cases[j % 4]))) << j;
+  }
+  EXPECT_EQ(n[0], 13.0);
+}
+} // namespace
+
+TEST(Lanes, TrianglesAndQuadsEqualTheScalarFrame)
+{
+  CompareGeometry<4, 3, double>(1);
+  CompareGeometry<4, 4, double>(2);
+  CompareGeometry<4, 3, float>(3);
+  CompareGeometry<4, 4, float>(4);
+}
+
+TEST(Lanes, ADegenerateOrNonFiniteFaceIsRefused)
+{
+  RefuseUncommonFaces<4>();
 }
 
 TEST(Lanes, NormEqualsTheScalarNormInEveryRange)
 {
-  const double cases[4][3] = { { 3, 4, 12 }, { 1e200, 1e200, 0 }, { 1e-200, 0, 0 },
-    { 0, 0, 0 } };
-  Lanes4 v[3];
-  for (int k = 0; k < 3; ++k)
-  {
-    v[k] = Lanes4::Of(cases[0][k], cases[1][k], cases[2][k], cases[3][k]);
-  }
-  const Lanes4 n = Norm(v);
-  for (int j = 0; j < 4; ++j)
-  {
-    EXPECT_TRUE(Same(n[j], Norm(cases[j]))) << j;
-  }
-  EXPECT_EQ(n[0], 13.0);
+  CompareNorms<4>();
 }
 
-TEST(Lanes, TractionEqualsTheScalarTraction)
+namespace
+{
+template <int W>
+LANES_TEST_INLINE void CompareTractions()
 {
   std::mt19937_64 rng(6);
   std::normal_distribution<double> g;
   for (int repeat = 0; repeat < 200; ++repeat)
   {
-    double grad[4][9];
-    double nrm[4][3];
-    double p[4];
-    Lanes4 G[9];
-    Lanes4 n[3];
-    for (int j = 0; j < 4; ++j)
+    double grad[W][9];
+    double nrm[W][3];
+    double p[W];
+    Lanes<W> G[9];
+    Lanes<W> n[3];
+    for (int j = 0; j < W; ++j)
     {
       for (double& x : grad[j])
       {
@@ -169,21 +203,21 @@ TEST(Lanes, TractionEqualsTheScalarTraction)
     }
     for (int k = 0; k < 9; ++k)
     {
-      G[k] = Lanes4::Of(grad[0][k], grad[1][k], grad[2][k], grad[3][k]);
+      G[k] = Lanes<W>::Gather([&](int j) { return grad[j][k]; });
     }
     for (int k = 0; k < 3; ++k)
     {
-      n[k] = Lanes4::Of(nrm[0][k], nrm[1][k], nrm[2][k], nrm[3][k]);
+      n[k] = Lanes<W>::Gather([&](int j) { return nrm[j][k]; });
     }
-    FaceTractionInput<Lanes4> in;
+    FaceTractionInput<Lanes<W>> in;
     in.Normal = n;
-    in.GaugePressure = Lanes4::Of(p[0], p[1], p[2], p[3]) - 101325.0;
+    in.GaugePressure = Lanes<W>::Gather([&](int j) { return p[j]; }) - 101325.0;
     in.VelocityGradient = G;
-    in.EffectiveViscosity = Lanes4(1.8e-5);
+    in.EffectiveViscosity = Lanes<W>(1.8e-5);
     in.IncludeNormalViscousStress = repeat % 2 == 0;
-    FaceTraction<Lanes4> out;
+    FaceTraction<Lanes<W>> out;
     FaceTractionValues(in, out);
-    for (int j = 0; j < 4; ++j)
+    for (int j = 0; j < W; ++j)
     {
       FaceTractionInput<double> one;
       one.Normal = nrm[j];
@@ -205,31 +239,106 @@ TEST(Lanes, TractionEqualsTheScalarTraction)
   }
 }
 
-// Compensated sums with one face per lane are four scalar compensated sums.
-TEST(Lanes, CompensatedSumPerLane)
+/// Compensated sums with one face per lane are W scalar compensated sums.
+template <int W>
+LANES_TEST_INLINE void CompareLaneSums()
 {
   std::mt19937_64 rng(7);
   std::normal_distribution<double> g;
-  CompensatedSum<Lanes4> lanes;
-  CompensatedSum<double> scalar[4];
+  CompensatedSum<Lanes<W>> lanes;
+  CompensatedSum<double> scalar[W];
   for (int i = 0; i < 10000; ++i)
   {
-    double x[4];
+    double x[W];
     for (double& v : x)
     {
       v = 1e5 * g(rng);
     }
-    lanes.Add(Lanes4::Of(x[0], x[1], x[2], x[3]));
-    for (int j = 0; j < 4; ++j)
+    lanes.Add(Lanes<W>::Gather([&](int j) { return x[j]; }));
+    for (int j = 0; j < W; ++j)
     {
       scalar[j].Add(x[j]);
     }
   }
-  for (int j = 0; j < 4; ++j)
+  for (int j = 0; j < W; ++j)
   {
     EXPECT_TRUE(Same(lanes.Sum[j], scalar[j].Sum));
     EXPECT_TRUE(Same(lanes.Carry[j], scalar[j].Carry));
   }
+}
+
+/// The stores of the face loops: lane j of a scalar into d[j], lane j of
+/// a vector into d[3j..3j+2], nothing outside, each value moved unchanged.
+template <int W>
+LANES_TEST_INLINE void CompareStores()
+{
+  const double guard = -7.5;
+  Lanes<W> v[3];
+  for (int k = 0; k < 3; ++k)
+  {
+    v[k] = Lanes<W>::Gather([k](int j) { return 100.0 * k + j + 0.25; });
+  }
+  std::vector<double> vectors(3 * W + 2, guard);
+  StoreInterleaved(vectors.data() + 1, v);
+  std::vector<double> scalars(W + 2, guard);
+  StoreLanes(scalars.data() + 1, v[2]);
+  EXPECT_EQ(vectors.front(), guard);
+  EXPECT_EQ(vectors.back(), guard);
+  EXPECT_EQ(scalars.front(), guard);
+  EXPECT_EQ(scalars.back(), guard);
+  for (int j = 0; j < W; ++j)
+  {
+    for (int k = 0; k < 3; ++k)
+    {
+      EXPECT_TRUE(Same(vectors[1 + 3 * j + k], v[k][j])) << "lane " << j << " component " << k;
+    }
+    EXPECT_TRUE(Same(scalars[1 + j], v[2][j])) << "lane " << j;
+  }
+}
+
+#if WALLLOADS_AVX512_CLONE
+// The eight-lane checks, compiled for AVX-512 as the face loop's clone is.
+WALLLOADS_TARGET_AVX512 void CheckEightLanes()
+{
+  CompareGeometry<8, 3, double>(11);
+  CompareGeometry<8, 4, double>(12);
+  CompareGeometry<8, 3, float>(13);
+  CompareGeometry<8, 4, float>(14);
+  RefuseUncommonFaces<8>();
+  CompareNorms<8>();
+  CompareTractions<8>();
+  CompareLaneSums<8>();
+  CompareStores<8>();
+}
+#endif
+} // namespace
+
+TEST(Lanes, TractionEqualsTheScalarTraction)
+{
+  CompareTractions<4>();
+}
+
+TEST(Lanes, CompensatedSumPerLane)
+{
+  CompareLaneSums<4>();
+}
+
+TEST(Lanes, StoresPutEveryLaneInPlace)
+{
+  CompareStores<4>();
+}
+
+TEST(Lanes, EightLanesEqualTheScalarKernels)
+{
+#if WALLLOADS_AVX512_CLONE
+  if (!UseAvx512Loops())
+  {
+    GTEST_SKIP() << "this processor has no AVX-512: the face loops take four lanes";
+  }
+  CheckEightLanes();
+#else
+  GTEST_SKIP() << "built without the AVX-512 clone (sanitizer build or not x86-64 GCC/Clang)";
+#endif
 }
 
 #endif

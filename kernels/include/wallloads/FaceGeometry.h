@@ -33,12 +33,12 @@ inline bool UseAvx2Loops()
 #endif
 }
 
-/// Whether it runs the AVX-512VL clones (AVX-512 state enabled by the OS).
+/// Whether it runs the AVX-512 clones (F, VL and DQ; AVX-512 state enabled by the OS).
 inline bool UseAvx512Loops()
 {
 #if WALLLOADS_AVX512_CLONE
   static const bool avx512 = UseAvx2Loops() && __builtin_cpu_supports("avx512f") != 0 &&
-    __builtin_cpu_supports("avx512vl") != 0;
+    __builtin_cpu_supports("avx512vl") != 0 && __builtin_cpu_supports("avx512dq") != 0;
   return avx512;
 #else
   return false;
@@ -312,37 +312,38 @@ FaceStatus ComputeFaceFrame(const P* points, const I* ids, int numIds, FaceFrame
 
 #if WALLLOADS_LANES
 /**
- * Four faces of `N` corners each, read from a coordinate array of type `P`
- * and each face's corner ids: corner(k, r) gives corner k of every face
- * relative to that face's corner 0 (Relative, lane by lane), as the passes
- * above take it.
+ * W faces (Lanes.h: 4 or 8) of `N` corners each, read from a coordinate
+ * array of type `P` and each face's corner ids: corner(k, r) gives corner k
+ * of every face relative to that face's corner 0 (Relative, lane by lane),
+ * as the passes above take it.
  */
-template <int N, typename P, typename I>
-struct FourFaces
+template <int W, int N, typename P, typename I>
+struct LaneFaces
 {
   const P* Points;
-  const I* const* Ids; ///< four id lists of N corners
-  Lanes4 Origin[3];    ///< corner 0 of each face
-  detail::Fan<N, Lanes4> Kept; ///< pass 1's corners and cross products (FaceNormalLanes)
+  const I* const* Ids;  ///< W id lists of N corners
+  Lanes<W> Origin[3]; ///< corner 0 of each face
+  detail::Fan<N, Lanes<W>> Kept; ///< pass 1's corners and cross products (FaceNormalLanes)
 
-  WALLLOADS_FACE_INLINE FourFaces(const P* points, const I* const ids[4])
+  WALLLOADS_FACE_INLINE LaneFaces(const P* points, const I* const ids[W])
     : Points(points)
     , Ids(ids)
   {
     this->Fetch(0, this->Origin);
   }
-  WALLLOADS_FACE_INLINE void Fetch(int k, Lanes4 r[3]) const
+  WALLLOADS_FACE_INLINE void Fetch(int k, Lanes<W> r[3]) const
   {
-    const P* q0 = this->Points + 3 * this->Ids[0][k];
-    const P* q1 = this->Points + 3 * this->Ids[1][k];
-    const P* q2 = this->Points + 3 * this->Ids[2][k];
-    const P* q3 = this->Points + 3 * this->Ids[3][k];
+    const P* q[W];
+    for (int j = 0; j < W; ++j)
+    {
+      q[j] = this->Points + 3 * this->Ids[j][k];
+    }
     for (int d = 0; d < 3; ++d)
     {
-      r[d] = Lanes4::Of(double(q0[d]), double(q1[d]), double(q2[d]), double(q3[d]));
+      r[d] = Lanes<W>::Gather([&](int j) { return double(q[j][d]); });
     }
   }
-  WALLLOADS_FACE_INLINE void operator()(int k, Lanes4 r[3]) const
+  WALLLOADS_FACE_INLINE void operator()(int k, Lanes<W> r[3]) const
   {
     this->Fetch(k, r);
     r[0] -= this->Origin[0];
@@ -350,27 +351,29 @@ struct FourFaces
     r[2] -= this->Origin[2];
   }
 };
+template <int N, typename P, typename I>
+using FourFaces = LaneFaces<4, N, P, I>;
 
 /**
- * ComputeFaceNormal for four faces of N corners: true when all four are Ok,
- * each lane then holding the values the scalar function gives its face
- * (and `faces` what FaceCentroidLanes needs from this pass);
- * false when any is not (the caller then takes the faces one by one).
+ * ComputeFaceNormal for W faces of N corners: true when all are Ok, each
+ * lane then holding the values the scalar function gives its face (and
+ * `faces` what FaceCentroidLanes needs from this pass); false when any is
+ * not (the caller then takes the faces one by one).
  */
-template <int N, typename P, typename I>
-WALLLOADS_FACE_INLINE bool FaceNormalLanes(FourFaces<N, P, I>& faces, Lanes4 normal[3],
-  Lanes4& area, Lanes4 a[3], double relativeAreaTolerance = 1e-14)
+template <int W, int N, typename P, typename I>
+WALLLOADS_FACE_INLINE bool FaceNormalLanes(LaneFaces<W, N, P, I>& faces, Lanes<W> normal[3],
+  Lanes<W>& area, Lanes<W> a[3], double relativeAreaTolerance = 1e-14)
 {
-  Lanes4 size2;
+  Lanes<W> size2;
   detail::FanAreaSums<N>(faces, N, a, size2, faces.Kept);
-  const Lanes4* o = faces.Origin;
+  const Lanes<W>* o = faces.Origin;
   if (!AllLanes(FiniteLanes(a[0]) & FiniteLanes(a[1]) & FiniteLanes(a[2]) & FiniteLanes(o[0]) &
         FiniteLanes(o[1]) & FiniteLanes(o[2])))
   {
     return false;
   }
-  const Lanes4 twiceArea = Norm(a);
-  if (!AllLanes(twiceArea > Lanes4(2.0) * relativeAreaTolerance * size2))
+  const Lanes<W> twiceArea = Norm(a);
+  if (!AllLanes(twiceArea > Lanes<W>(2.0) * relativeAreaTolerance * size2))
   {
     return false;
   }
@@ -378,13 +381,13 @@ WALLLOADS_FACE_INLINE bool FaceNormalLanes(FourFaces<N, P, I>& faces, Lanes4 nor
   return true;
 }
 
-/// The area centroid of ComputeFaceFrame for four faces whose normals
+/// The area centroid of ComputeFaceFrame for W faces whose normals
 /// FaceNormalLanes gave, from what it kept (the same values, lane by lane).
-template <int N, typename P, typename I>
+template <int W, int N, typename P, typename I>
 WALLLOADS_FACE_INLINE void FaceCentroidLanes(
-  const FourFaces<N, P, I>& faces, const Lanes4 normal[3], Lanes4 centroid[3])
+  const LaneFaces<W, N, P, I>& faces, const Lanes<W> normal[3], Lanes<W> centroid[3])
 {
-  Lanes4 c[3];
+  Lanes<W> c[3];
   detail::FanCentroid<N>(faces, N, faces.Kept, normal, c);
   for (int k = 0; k < 3; ++k)
   {

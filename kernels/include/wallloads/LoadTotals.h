@@ -179,11 +179,12 @@ inline void FinishRegion(const T slots[NumLoadSlots], const T r0[3], const LoadA
 }
 
 #if WALLLOADS_LANES
-/// Sums kept with one face per lane (LoadSums<Lanes4>), merged into `to`
-/// lane by lane, as the sums of four threads would be.
-inline void MergeLanes(const LoadSums<Lanes4>& lanes, LoadSums<double>& to)
+/// Sums kept with one face per lane (LoadSums<Lanes<W>>), merged into `to`
+/// lane by lane, as the sums of W threads would be.
+template <int W>
+inline void MergeLanes(const LoadSums<Lanes<W>>& lanes, LoadSums<double>& to)
 {
-  for (int j = 0; j < 4; ++j)
+  for (int j = 0; j < W; ++j)
   {
     LoadSums<double> lane;
     for (std::size_t k = 0; k < NumLoadSlots; ++k)

@@ -292,7 +292,7 @@ struct SumLoop
       {
         I buffer[4][4];
         const I* ids[4];
-        const int n = topo.RunOfFour(c, ids, buffer);
+        const int n = topo.template RunOf<4>(c, ids, buffer);
         const bool counted = IsCountedCell(ghosts, c) && IsCountedCell(ghosts, c + 1) &&
           IsCountedCell(ghosts, c + 2) && IsCountedCell(ghosts, c + 3);
         const bool done = n != 0 && counted &&

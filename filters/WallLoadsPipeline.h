@@ -170,13 +170,14 @@ struct FaceTopology
   const unsigned char* Types = nullptr; ///< unstructured grid: cell types
 
   int Corners(vtkIdType cellId, const I*& ids, I buffer[4]) const;
-  /// The corner count of cells c..c+3 when all four are faces of the same
-  /// 3 or 4 corners (a run the four-face paths take, Lanes.h), else 0.
-  int RunOfFour(vtkIdType c, const I* ids[4], I buffer[4][4]) const
+  /// The corner count of cells c..c+W-1 when all are faces of the same 3
+  /// or 4 corners (a run the lane paths take, Lanes.h), else 0.
+  template <int W>
+  int RunOf(vtkIdType c, const I* ids[W], I buffer[W][4]) const
   {
     const int n = this->Corners(c, ids[0], buffer[0]);
     bool same = n == 3 || n == 4;
-    for (int j = 1; j < 4; ++j)
+    for (int j = 1; j < W; ++j)
     {
       same = (this->Corners(c + j, ids[j], buffer[j]) == n) && same;
     }

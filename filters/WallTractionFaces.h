@@ -9,8 +9,9 @@
  * orientation check must run, the edge-balance certificate (EdgeBalance.h)
  * that spares the exact check on closed consistently oriented surfaces. The
  * check's result is kept per leaf while the mesh is unchanged. In the AVX2
- * and AVX-512VL clones, runs of four like faces take the same kernels on
- * Lanes4 (Lanes.h), with the same values.
+ * clone, runs of four like faces take the same kernels on Lanes<4>
+ * (Lanes.h), and in the AVX-512 clone runs of eight on Lanes<8>, with the
+ * same per-face values.
  */
 #include "WallLoadsMeshCache.h"
 #include "WallLoadsPipeline.h"
@@ -29,6 +30,7 @@
 #include <cmath>
 #include <cstdint>
 #include <limits>
+#include <utility>
 #include <vector>
 
 namespace wallloads
@@ -188,7 +190,7 @@ struct FaceLoop
       return;
     }
 #endif
-    this->Faces<false>(begin, end);
+    this->Faces<false, 4>(begin, end);
   }
 
 #if WALLLOADS_AVX2_CLONE
@@ -196,14 +198,15 @@ struct FaceLoop
   /// where it can: the same values.
   WALLLOADS_TARGET_AVX2 void FacesAvx2(vtkIdType begin, vtkIdType end)
   {
-    this->Faces<WALLLOADS_LANES != 0>(begin, end);
+    this->Faces<WALLLOADS_LANES != 0, 4>(begin, end);
   }
 #endif
 #if WALLLOADS_AVX512_CLONE
-  /// And for AVX-512VL (twice the vector registers): the same values.
+  /// And for AVX-512, eight faces at a time in registers twice as wide
+  /// (and twice as many): the same values.
   WALLLOADS_TARGET_AVX512 void FacesAvx512(vtkIdType begin, vtkIdType end)
   {
-    this->Faces<WALLLOADS_LANES != 0>(begin, end);
+    this->Faces<WALLLOADS_LANES != 0, 8>(begin, end);
   }
 #endif
 
@@ -211,7 +214,7 @@ struct FaceLoop
   /// viscous source and the array set fixed at compile time.
   static constexpr bool HasLanes = WALLLOADS_LANES != 0 && Direct && Shear >= 0 && Arrays >= 0;
 
-  template <bool UseLanes>
+  template <bool UseLanes, int W>
   WALLLOADS_FACE_INLINE void Faces(vtkIdType begin, vtkIdType end)
   {
     ThreadTally& tally = this->Local.Local();
@@ -404,21 +407,21 @@ struct FaceLoop
     {
       if (orientation != vtkWallTraction::WALL_NORMAL_ARRAY)
       {
-        const Lanes4 lanesLoadDirection[3] = { Lanes4(loadDirection[0]), Lanes4(loadDirection[1]),
-          Lanes4(loadDirection[2]) };
-        LoadSums<Lanes4> lanes; // Load Integration's sums, one face per lane
+        const Lanes<W> lanesLoadDirection[3] = { Lanes<W>(loadDirection[0]),
+          Lanes<W>(loadDirection[1]), Lanes<W>(loadDirection[2]) };
+        LoadSums<Lanes<W>> lanes; // Load Integration's sums, one face per lane
         vtkIdType c = begin;
-        for (; c + 4 <= end; c += 4)
+        for (; c + W <= end; c += W)
         {
-          I buffer[4][4];
-          const I* ids[4];
-          const int n = topo.RunOfFour(c, ids, buffer);
+          I buffer[W][4];
+          const I* ids[W];
+          const int n = topo.template RunOf<W>(c, ids, buffer);
           const bool done = n != 0 &&
-            (n == 3 ? this->Quartet<3>(c, ids, tally, lanes, points, lanesLoadDirection)
-                    : this->Quartet<4>(c, ids, tally, lanes, points, lanesLoadDirection));
+            (n == 3 ? this->LaneRun<W, 3>(c, ids, tally, lanes, points, lanesLoadDirection)
+                    : this->LaneRun<W, 4>(c, ids, tally, lanes, points, lanesLoadDirection));
           if (!done)
           {
-            for (int j = 0; j < 4; ++j)
+            for (int j = 0; j < W; ++j)
             {
               oneFace(c + j);
             }
@@ -443,12 +446,13 @@ struct FaceLoop
   /// face count of those faces from their area and count slots: every face
   /// summed in lanes is counted and finite, so the four-face path carries no
   /// per-face scalar sum (a chain of dependent additions) of its own.
-  static void MergeLaneTallies(const LoadSums<Lanes4>& lanes, ThreadTally& tally)
+  template <int W>
+  static void MergeLaneTallies(const LoadSums<Lanes<W>>& lanes, ThreadTally& tally)
   {
     MergeLanes(lanes, tally.Loads);
-    const CompensatedSum<Lanes4>& area = lanes.Sums.Terms[AreaSlot];
-    const CompensatedSum<Lanes4>& count = lanes.Sums.Terms[FaceCountSlot];
-    for (int j = 0; j < 4; ++j)
+    const CompensatedSum<Lanes<W>>& area = lanes.Sums.Terms[AreaSlot];
+    const CompensatedSum<Lanes<W>>& count = lanes.Sums.Terms[FaceCountSlot];
+    for (int j = 0; j < W; ++j)
     {
       CompensatedSum<double> laneArea;
       laneArea.Sum = area.Sum[j];
@@ -459,58 +463,53 @@ struct FaceLoop
   }
 
   /**
-   * Faces c..c+3, all of N corners, by the same kernels on Lanes4: each face
-   * gets the values and tallies the scalar path gives it. False, with nothing
-   * written, when any of the four leaves the common case (invalid geometry,
+   * Faces c..c+W-1, all of N corners, by the same kernels on Lanes<W>: each
+   * face gets the values and tallies the scalar path gives it. False, with
+   * nothing written, when any of them leaves the common case (invalid geometry,
    * a non-finite value): the caller then takes them one by one.
    */
-  template <int N>
-  WALLLOADS_FACE_INLINE bool Quartet(vtkIdType c, const I* const ids[4], ThreadTally& tally,
-    LoadSums<Lanes4>& lanes, const P* points, const Lanes4 loadDirection[3]) const
+  template <int W, int N>
+  WALLLOADS_FACE_INLINE bool LaneRun(vtkIdType c, const I* const ids[W], ThreadTally& tally,
+    LoadSums<Lanes<W>>& lanes, const P* points, const Lanes<W> loadDirection[3]) const
   {
     const Outputs& out = this->Out;
     const Inputs& in = this->In;
-    FourFaces<N, P, I> faces(points, ids);
-    Lanes4 unit[3];
-    Lanes4 A;
-    Lanes4 a[3];
+    LaneFaces<W, N, P, I> faces(points, ids);
+    Lanes<W> unit[3];
+    Lanes<W> A;
+    Lanes<W> a[3];
     if (!FaceNormalLanes(faces, unit, A, a))
     {
       return false;
     }
-    auto gather = [c](const ArrayView& v, int k) {
-      const double* d = static_cast<const double*>(v.Data) + c * v.NumComponents + k;
-      const int w = v.NumComponents;
-      return Lanes4::Of(d[0], d[w], d[2 * w], d[3 * w]);
-    };
     const double sign = S.Orientation == vtkWallTraction::STORED_INTO_FLUID ? 1.0 : -1.0;
-    const Lanes4 normal[3] = { sign * unit[0], sign * unit[1], sign * unit[2] };
-    Lanes4 rho(S.Density);
+    const Lanes<W> normal[3] = { sign * unit[0], sign * unit[1], sign * unit[2] };
+    Lanes<W> rho(S.Density);
     if (in.Density.Valid())
     {
-      rho = gather(in.Density, 0);
+      rho = GatherFaces<W, 1>(in.Density, c, 0);
     }
-    FaceTractionInput<Lanes4> tin;
+    FaceTractionInput<Lanes<W>> tin;
     tin.Normal = normal;
     tin.IncludeNormalViscousStress = S.IncludeNormal;
     tin.WantShearMagnitude = out.Cf != nullptr;
     if (in.Pressure.Valid())
     {
-      const Lanes4 p = gather(in.Pressure, 0);
+      const Lanes<W> p = GatherFaces<W, 1>(in.Pressure, c, 0);
       tin.GaugePressure = (S.PressurePerUnitDensity ? rho * p : p) - S.ReferencePressure;
     }
     else
     {
-      tin.GaugePressure = Lanes4(0.0);
+      tin.GaugePressure = Lanes<W>(0.0);
     }
-    Lanes4 shear[3];
-    Lanes4 gradient[9];
+    Lanes<W> shear[3];
+    Lanes<W> gradient[9];
     if (Shear == vtkWallTraction::WALL_SHEAR_STRESS)
     {
-      const Lanes4 f = S.ShearPerUnitDensity ? rho : Lanes4(1.0);
+      const Lanes<W> f = S.ShearPerUnitDensity ? rho : Lanes<W>(1.0);
       for (int k = 0; k < 3; ++k)
       {
-        shear[k] = f * gather(in.Shear, k);
+        shear[k] = f * GatherFaces<W, 3>(in.Shear, c, k);
       }
       tin.ShearVector = shear;
     }
@@ -518,20 +517,20 @@ struct FaceLoop
     {
       for (int k = 0; k < 9; ++k)
       {
-        gradient[k] = gather(in.Gradient, k);
+        gradient[k] = GatherFaces<W, 9>(in.Gradient, c, k);
       }
       tin.VelocityGradient = gradient;
-      Lanes4 mu = in.Viscosity.Valid() ? gather(in.Viscosity, 0) : Lanes4(S.Viscosity);
+      Lanes<W> mu = in.Viscosity.Valid() ? GatherFaces<W, 1>(in.Viscosity, c, 0) : Lanes<W>(S.Viscosity);
       if (in.TurbulentViscosity.Valid())
       {
-        mu += gather(in.TurbulentViscosity, 0);
+        mu += GatherFaces<W, 1>(in.TurbulentViscosity, c, 0);
       }
       tin.EffectiveViscosity = S.Kinematic ? rho * mu : mu;
     }
-    FaceTraction<Lanes4> t;
+    FaceTraction<Lanes<W>> t;
     FaceTractionValues(tin, t);
-    const Lanes4 fp[3] = { t.Pressure[0] * A, t.Pressure[1] * A, t.Pressure[2] * A };
-    const Lanes4 fv[3] = { t.Viscous[0] * A, t.Viscous[1] * A, t.Viscous[2] * A };
+    const Lanes<W> fp[3] = { t.Pressure[0] * A, t.Pressure[1] * A, t.Pressure[2] * A };
+    const Lanes<W> fv[3] = { t.Viscous[0] * A, t.Viscous[1] * A, t.Viscous[2] * A };
     if (!AllLanes(FiniteLanes(tin.GaugePressure) & FiniteLanes(t.Viscous[0]) &
           FiniteLanes(t.Viscous[1]) & FiniteLanes(t.Viscous[2]) & FiniteLanes(t.NormalViscous) &
           FiniteLanes(rho) & FiniteLanes(fp[0]) & FiniteLanes(fp[1]) & FiniteLanes(fp[2]) &
@@ -541,7 +540,7 @@ struct FaceLoop
     }
     if (in.Ghosts)
     {
-      for (int j = 0; j < 4; ++j)
+      for (int j = 0; j < W; ++j)
       {
         if (!IsCountedCell(in.Ghosts, c + j))
         {
@@ -549,12 +548,12 @@ struct FaceLoop
         }
       }
     }
-    Lanes4 centroid[3];
+    Lanes<W> centroid[3];
     FaceCentroidLanes(faces, unit, centroid);
-    const Lanes4 origin[3] = { Lanes4(0.0), Lanes4(0.0), Lanes4(0.0) };
+    const Lanes<W> origin[3] = { Lanes<W>(0.0), Lanes<W>(0.0), Lanes<W>(0.0) };
     lanes.AddFace(A, centroid, origin, fp, fv);
     // Every lane is valid: the stores and tallies of the scalar path.
-    for (int j = 0; j < 4; ++j)
+    for (int j = 0; j < W; ++j)
     {
       const vtkIdType f = c + j; // counted (checked above)
       if (out.FaceOk)
@@ -567,14 +566,14 @@ struct FaceLoop
       }
     }
     StoreScalars(out.Area, c, A);
-    StoreVectors(out.ForceP, c, fp, nullptr);
-    StoreVectors(out.ForceV, c, fv, nullptr);
+    StoreVectors(out.ForceP, c, fp);
+    StoreVectors(out.ForceV, c, fv);
     if (Arrays == 1)
     {
-      StoreVectors(out.Normal, c, normal, nullptr);
-      StoreVectors(out.TractionP, c, t.Pressure, nullptr);
-      StoreVectors(out.TractionV, c, t.Viscous, nullptr);
-      StoreVectors(out.Traction, c, t.Total, nullptr);
+      StoreVectors(out.Normal, c, normal);
+      StoreVectors(out.TractionP, c, t.Pressure);
+      StoreVectors(out.TractionV, c, t.Viscous);
+      StoreVectors(out.Traction, c, t.Total);
       StoreVectors(out.Force, c, t.Total, &A);
       StoreScalars(out.NormalV, c, t.NormalViscous);
       StoreScalars(out.Directional, c, Dot(t.Total, loadDirection));
@@ -590,32 +589,35 @@ struct FaceLoop
     return true;
   }
 
-  /// v (times `scale` when given) of faces c..c+3 into a 3-component array.
-  static WALLLOADS_FACE_INLINE void StoreVectors(
-    double* to, vtkIdType c, const Lanes4 v[3], const Lanes4* scale)
+  /// Component k of faces c..c+W-1 from a double cell array of `Components`
+  /// components (the widths the filter validated, so that the stride is a
+  /// constant the compiler folds into the addresses).
+  template <int W, int Components>
+  static WALLLOADS_FACE_INLINE Lanes<W> GatherFaces(const ArrayView& v, vtkIdType c, int k)
   {
-    Lanes4 w[3] = { v[0], v[1], v[2] };
+    const double* d = static_cast<const double*>(v.Data) + c * Components + k;
+    return Lanes<W>::Gather([d](int j) { return d[j * Components]; });
+  }
+
+  /// v (times `scale` when given) of faces c..c+W-1 into a 3-component array.
+  template <int W>
+  static WALLLOADS_FACE_INLINE void StoreVectors(
+    double* to, vtkIdType c, const Lanes<W> v[3], const Lanes<W>* scale = nullptr)
+  {
+    Lanes<W> w[3] = { v[0], v[1], v[2] };
     if (scale)
     {
       w[0] = v[0] * *scale;
       w[1] = v[1] * *scale;
       w[2] = v[2] * *scale;
     }
-    double* d = to + 3 * c;
-    for (int j = 0; j < 4; ++j)
-    {
-      d[3 * j] = w[0][j];
-      d[3 * j + 1] = w[1][j];
-      d[3 * j + 2] = w[2][j];
-    }
+    StoreInterleaved(to + 3 * c, w);
   }
 
-  static WALLLOADS_FACE_INLINE void StoreScalars(double* to, vtkIdType c, const Lanes4& v)
+  template <int W>
+  static WALLLOADS_FACE_INLINE void StoreScalars(double* to, vtkIdType c, const Lanes<W>& v)
   {
-    for (int j = 0; j < 4; ++j)
-    {
-      to[c + j] = v[j];
-    }
+    StoreLanes(to + c, v);
   }
 #endif
 
@@ -647,6 +649,13 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
          &in.TurbulentViscosity })
   {
     direct = direct && (!v->Valid() || (!v->IsFloat && !v->OnPoints));
+  }
+  // The direct loops read each array with the width the filter validated.
+  const std::pair<const ArrayView*, int> widths[] = { { &in.Pressure, 1 }, { &in.Density, 1 },
+    { &in.Shear, 3 }, { &in.Gradient, 9 }, { &in.Viscosity, 1 }, { &in.TurbulentViscosity, 1 } };
+  for (const auto& w : widths)
+  {
+    direct = direct && (!w.first->Valid() || w.first->NumComponents == w.second);
   }
   EdgeBalance balance;
   // Runs one loop and merges its thread tallies in a fixed order of their

@@ -210,7 +210,7 @@ struct FaceLoop
   }
 #endif
 
-  /// Whether this loop has a four-face path: double cell arrays, the
+  /// Whether this loop has a lane path (runs of four or eight faces): double cell arrays, the
   /// viscous source and the array set fixed at compile time.
   static constexpr bool HasLanes = WALLLOADS_LANES != 0 && Direct && Shear >= 0 && Arrays >= 0;
 
@@ -444,7 +444,7 @@ struct FaceLoop
 #if WALLLOADS_LANES
   /// Merges the lanes' sums into the thread's, and takes the wetted area and
   /// face count of those faces from their area and count slots: every face
-  /// summed in lanes is counted and finite, so the four-face path carries no
+  /// summed in lanes is counted and finite, so the lane path carries no
   /// per-face scalar sum (a chain of dependent additions) of its own.
   template <int W>
   static void MergeLaneTallies(const LoadSums<Lanes<W>>& lanes, ThreadTally& tally)

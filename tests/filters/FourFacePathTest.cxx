@@ -1,9 +1,10 @@
 // SPDX-License-Identifier: BSD-3-Clause
-// Wall Traction and Load Integration take runs of four like faces at once
-// (Lanes.h) and single faces otherwise. The two paths must give every face
-// the same values: the same surface is given once as faces only (runs of
-// four) and once with a vertex cell after every face (no run of four like
-// faces, so every face takes the one-face path), and the per-face arrays are
+// Wall Traction and Load Integration take runs of like faces at once
+// (Lanes.h: four in the AVX2 loops, eight in Wall Traction's AVX-512 loop)
+// and single faces otherwise. The two paths must give every face the same
+// values: the same surface is given once as faces only (runs of like faces)
+// and once with a vertex cell after every face (no run of like faces, so
+// every face takes the one-face path), and the per-face arrays are
 // compared exactly (the same binary, the same IEEE operations) and the
 // totals to round-off (the faces are summed in a different order).
 #include "FilterTestUtilities.h"

@@ -95,7 +95,7 @@ struct Fan<0, T>
  * of the fan triangles' cross products, Newell's vector), and `size2`, the
  * largest squared distance of a corner from corner 0. `corner(k, r)` gives
  * corner k (1 <= k < n) relative to corner 0. Templated on the value type:
- * double for one face, Lanes4 for four faces at once (Lanes.h). With N > 0
+ * double for one face, Lanes<W> for W faces at once (Lanes.h). With N > 0
  * the corners and cross products are kept in `fan`.
  */
 template <int N, typename T, typename Corner>

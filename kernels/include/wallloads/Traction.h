@@ -72,7 +72,7 @@ struct FaceTraction
 
 /**
  * The values of ComputeFaceTraction without its check, for any value type:
- * double for one face, Lanes4 (Lanes.h) for four faces at once, with the
+ * double for one face, Lanes<W> (Lanes.h) for W faces at once, with the
  * same operations lane by lane.
  */
 template <typename T>

@@ -96,8 +96,9 @@ WALLLOADS_FACE_INLINE LaneMask<W> operator&(const LaneMask<W>& a, const LaneMask
 /// comparisons made in inlined functions lane by lane in scalar code
 /// (measured: the eight-lane loop ran at half the speed of the four-lane one).
 template <int W>
-WALLLOADS_FACE_INLINE LaneMask<W> MaskOf(typename LaneMask<W>::Vec m)
+WALLLOADS_FACE_INLINE LaneMask<W> MaskOf(const typename LaneMask<W>::Vec& comparison)
 {
+  typename LaneMask<W>::Vec m = comparison;
 #if WALLLOADS_AVX512_CLONE
   if constexpr (W == 8)
   {

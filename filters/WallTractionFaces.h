@@ -565,7 +565,7 @@ struct FaceLoop
         tally.Balance.AddFace(ids[j], N, false);
       }
     }
-    StoreScalars(out.Area, c, A);
+    StoreLanes(out.Area + c, A);
     StoreVectors(out.ForceP, c, fp);
     StoreVectors(out.ForceV, c, fv);
     if (Arrays == 1)
@@ -575,16 +575,16 @@ struct FaceLoop
       StoreVectors(out.TractionV, c, t.Viscous);
       StoreVectors(out.Traction, c, t.Total);
       StoreVectors(out.Force, c, t.Total, &A);
-      StoreScalars(out.NormalV, c, t.NormalViscous);
-      StoreScalars(out.Directional, c, Dot(t.Total, loadDirection));
+      StoreLanes(out.NormalV + c, t.NormalViscous);
+      StoreLanes(out.Directional + c, Dot(t.Total, loadDirection));
     }
     if (out.Cp)
     {
-      StoreScalars(out.Cp, c, tin.GaugePressure / S.DynamicPressure);
+      StoreLanes(out.Cp + c, tin.GaugePressure / S.DynamicPressure);
     }
     if (out.Cf)
     {
-      StoreScalars(out.Cf, c, t.ShearMagnitude / S.DynamicPressure);
+      StoreLanes(out.Cf + c, t.ShearMagnitude / S.DynamicPressure);
     }
     return true;
   }
@@ -612,12 +612,6 @@ struct FaceLoop
       w[2] = v[2] * *scale;
     }
     StoreInterleaved(to + 3 * c, w);
-  }
-
-  template <int W>
-  static WALLLOADS_FACE_INLINE void StoreScalars(double* to, vtkIdType c, const Lanes<W>& v)
-  {
-    StoreLanes(to + c, v);
   }
 #endif
 

@@ -114,7 +114,6 @@ template <int W>
 struct Lanes
 {
   static_assert(W == 4 || W == 8, "four or eight lanes");
-  static constexpr int Width = W;
   typedef typename LaneVectors<W>::Values Vec;
   Vec V;
 
@@ -178,7 +177,6 @@ struct Lanes
   }
 };
 typedef Lanes<4> Lanes4;
-typedef Lanes<8> Lanes8;
 
 #define WALLLOADS_LANES_BINARY(op)                                                                 \
   template <int W>                                                                                 \

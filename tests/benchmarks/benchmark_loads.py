@@ -27,8 +27,12 @@ and on STDThread (all cores):
     the gradient components and for its tangential part, and
     vtkIntegrateAttributes (which multiplies by the cell areas);
   * the same sums written with numpy on the VTK arrays;
-  * the memory floor of a one-thread loop in the same run: reading the
-    inputs and rewriting arrays of the outputs' size with numpy;
+  * the memory floor of a loop on one thread and on all cores, in the same
+    run: reading the inputs and rewriting arrays of the outputs' size with
+    numpy, on one thread and split in equal parts between as many Python
+    threads as cores (numpy's reductions and fills release the interpreter
+    lock), so that the speed-up the memory system allows shows beside the
+    filters';
 
 and prints faces per second, the ratios, the thread speed-up, memory (output
 arrays, peak resident memory beyond what was held before), the cache counters
@@ -37,6 +41,7 @@ and a summary table.
 import argparse
 import os
 import platform
+import threading
 import time
 
 import numpy as np
@@ -252,31 +257,45 @@ def timed_split(run, repeat, arg=None):
     return best, result
 
 
-def memory_floor(pd, offsets, conn, pts, repeat):
-    """Same-run bound of a one-thread face loop: the best time to read the
-    arrays Wall Traction reads (pressure, gradient, offsets, connectivity,
-    points) and to rewrite, in place, arrays of the size of its outputs
-    (forces only: 7 doubles per face, all arrays: 24), measured with numpy."""
+def memory_floor(pd, offsets, conn, pts, repeat, threads=1):
+    """Same-run bound of a face loop on `threads` threads: the best time to
+    read the arrays Wall Traction reads (pressure, gradient, offsets,
+    connectivity, points) and to rewrite, in place, arrays of the size of its
+    outputs (forces only: 7 doubles per face, all arrays: 24), measured with
+    numpy; with several threads each Python thread takes an equal part of
+    every array (numpy releases the interpreter lock in these loops)."""
     nf = pd.GetNumberOfCells()
     inputs = [vtk_to_numpy(pd.GetCellData().GetArray("p")), vtk_to_numpy(pd.GetCellData().GetArray("grad")),
               offsets, conn, pts]
-    read = float("inf")
-    for _ in range(repeat):
-        t0 = time.perf_counter()
+    inputs = [a.ravel() for a in inputs]
+
+    def part(a, k):
+        return a[k * len(a) // threads:(k + 1) * len(a) // threads]
+
+    def best_of(work):
+        best = float("inf")
+        for _ in range(repeat):
+            workers = [threading.Thread(target=work, args=(k,)) for k in range(1, threads)]
+            t0 = time.perf_counter()
+            for w in workers:
+                w.start()
+            work(0)
+            for w in workers:
+                w.join()
+            best = min(best, time.perf_counter() - t0)
+        return best
+
+    def read(k):
         for a in inputs:
-            np.add.reduce(a.ravel())
-        read = min(read, time.perf_counter() - t0)
+            np.add.reduce(part(a, k))
+
+    read_time = best_of(read)
     writes = {}
     for label, per_face in (("forces only", 7), ("all arrays", 24)):
         out = np.ones(nf * per_face)
-        best = float("inf")
-        for _ in range(repeat):
-            t0 = time.perf_counter()
-            out.fill(0.0)
-            best = min(best, time.perf_counter() - t0)
-        writes[label] = best
+        writes[label] = best_of(lambda k: part(out, k).fill(0.0))
         del out
-    return read, writes
+    return read_time, writes
 
 
 STEP_ENCODINGS = ("inline binary", "appended raw")
@@ -323,12 +342,15 @@ def main():
         mf = lambda t: nf / t / 1e6
         say("\n== %d faces ==" % nf)
         vtkSMPTools.SetBackend("Sequential")
-        read_floor, write_floor = memory_floor(pd, offsets, conn, pts, args.repeat)
         floors = {}
-        for what, w in write_floor.items():
-            floors[what] = read_floor + w
-            say("%-34s read inputs %.3f s + rewrite %s outputs %.3f s = %.3f s = %6.2f M faces/s (one thread)"
-                % ("memory floor", read_floor, what, w, read_floor + w, mf(read_floor + w)))
+        for threads, backend in ((1, "Sequential"), (os.cpu_count(), "STDThread")):
+            read_floor, write_floor = memory_floor(pd, offsets, conn, pts, args.repeat, threads)
+            for what, w in write_floor.items():
+                floors[backend, what] = read_floor + w
+                say("%-34s read inputs %.3f s + rewrite %s outputs %.3f s = %.3f s = %6.2f M faces/s (%s)"
+                    % ("memory floor", read_floor, what, w, read_floor + w, mf(read_floor + w),
+                       "one thread" if threads == 1 else "%d threads, %.2fx one thread"
+                       % (threads, floors["Sequential", what] / floors[backend, what])))
         results = {}
         for backend in ("Sequential", "STDThread"):
             vtkSMPTools.SetBackend(backend)
@@ -372,8 +394,8 @@ def main():
                                               wt.GetOutputArraysAllocated(), wt.GetOutputArraysReused(),
                                               check_cost))
                 say("%-34s Load Integration: sums handed over by Wall Traction %d, summed itself %d;"
-                      " %.0f%% of the memory floor" % ("", run.li.GetLeavesHandedOver(), run.li.GetLeavesSummed(),
-                                                       100 * floors[what] / t if backend == "Sequential" else float("nan")))
+                      " %.0f%% of the memory floor on as many threads"
+                      % ("", run.li.GetLeavesHandedOver(), run.li.GetLeavesSummed(), 100 * floors[backend, what] / t))
                 summary.append((nf, key, min(firsts), t, wt_t, li_t, check_cost, min(nocheck)))
                 if forces_only and millions <= 2.5:
                     # New objects with the same content each step (a reader).
@@ -445,9 +467,9 @@ def main():
                 seq = results["Sequential, " + mode][0]
                 thr = results["STDThread, " + mode][0]
                 say("ratios, %s: stock/WallLoads %.0fx (one thread, re-execution), %.0fx (first execution),"
-                      " %.0fx (STDThread); numpy/WallLoads %.0fx; thread speed-up %.2fx"
+                      " %.0fx (STDThread); numpy/WallLoads %.0fx; thread speed-up %.2fx (memory floor's %.2fx)"
                       % (mode, stock / seq, stock / results["Sequential, " + mode + " first"][0], stock / thr,
-                         npy / seq, seq / thr))
+                         npy / seq, seq / thr, floors["Sequential", mode] / floors["STDThread", mode]))
         del pd
     say("\n| faces | backend, arrays | first execution | re-execution (WT + LI) | check cost, first |")
     say("|---|---|---|---|---|")

@@ -80,7 +80,38 @@ struct Outputs
   double* Cp = nullptr;
   double* Cf = nullptr;
   bool Full = true; ///< false: only Face Area, Pressure Force and Viscous Force
+  /// The eight-face loop stores past the caches (StreamOutputs).
+  bool Stream = false;
 };
+
+/**
+ * Whether the eight-face loop writes its outputs with streaming stores
+ * (Lanes.h, StreamVector): when every output array is 64-byte aligned (the
+ * OutputArrayPool allocates them so) and together they are larger than
+ * StreamBytes. The threshold is the last-level cache of the machines
+ * measured (32 MiB): what the loop writes beyond it has left the cache
+ * before any consumer reads it, so keeping it there only costs the read of
+ * every line before it is written; below it, a consumer may still find the
+ * outputs in cache, and plain stores keep them there.
+ */
+constexpr double StreamBytes = 32.0 * 1024 * 1024;
+inline bool StreamOutputs(const Outputs& out, vtkIdType faces)
+{
+  const std::pair<const double*, int> arrays[] = { { out.Area, 1 }, { out.ForceP, 3 },
+    { out.ForceV, 3 }, { out.Normal, 3 }, { out.TractionP, 3 }, { out.TractionV, 3 },
+    { out.Traction, 3 }, { out.Force, 3 }, { out.NormalV, 1 }, { out.Directional, 1 },
+    { out.Cp, 1 }, { out.Cf, 1 } };
+  double bytes = 0;
+  for (const auto& a : arrays)
+  {
+    if (a.first && reinterpret_cast<std::uintptr_t>(a.first) % 64 != 0)
+    {
+      return false;
+    }
+    bytes += a.first ? 8.0 * a.second * static_cast<double>(faces) : 0.0;
+  }
+  return bytes >= StreamBytes;
+}
 
 /// Inputs of one leaf.
 struct Inputs
@@ -411,6 +442,15 @@ struct FaceLoop
           Lanes<W>(loadDirection[1]), Lanes<W>(loadDirection[2]) };
         LoadSums<Lanes<W>> lanes; // Load Integration's sums, one face per lane
         vtkIdType c = begin;
+        if (W == 8 && out.Stream)
+        {
+          // Streaming stores need runs that start on a multiple of eight
+          // faces (64-byte aligned stores): the faces before it one by one.
+          for (; c < end && c % W != 0; ++c)
+          {
+            oneFace(c);
+          }
+        }
         for (; c + W <= end; c += W)
         {
           I buffer[W][4];
@@ -430,6 +470,13 @@ struct FaceLoop
         for (; c < end; ++c)
         {
           oneFace(c);
+        }
+        if constexpr (W == 8)
+        {
+          if (out.Stream)
+          {
+            StreamFence(); // before the thread reports its part done
+          }
         }
         MergeLaneTallies(lanes, tally);
         return;
@@ -565,28 +612,46 @@ struct FaceLoop
         tally.Balance.AddFace(ids[j], N, false);
       }
     }
-    StoreLanes(out.Area + c, A);
-    StoreVectors(out.ForceP, c, fp);
-    StoreVectors(out.ForceV, c, fv);
+    if constexpr (W == 8)
+    {
+      if (out.Stream) // c is a multiple of eight (Faces)
+      {
+        this->StoreRun<W, true>(c, A, fp, fv, normal, t, tin, loadDirection);
+        return true;
+      }
+    }
+    this->StoreRun<W, false>(c, A, fp, fv, normal, t, tin, loadDirection);
+    return true;
+  }
+
+  /// The per-face arrays of faces c..c+W-1 (Stream: by streaming stores).
+  template <int W, bool Stream>
+  WALLLOADS_FACE_INLINE void StoreRun(vtkIdType c, const Lanes<W>& A, const Lanes<W> fp[3],
+    const Lanes<W> fv[3], const Lanes<W> normal[3], const FaceTraction<Lanes<W>>& t,
+    const FaceTractionInput<Lanes<W>>& tin, const Lanes<W> loadDirection[3]) const
+  {
+    const Outputs& out = this->Out;
+    StoreLanes<W, Stream>(out.Area + c, A);
+    StoreVectors<W, Stream>(out.ForceP, c, fp);
+    StoreVectors<W, Stream>(out.ForceV, c, fv);
     if (Arrays == 1)
     {
-      StoreVectors(out.Normal, c, normal);
-      StoreVectors(out.TractionP, c, t.Pressure);
-      StoreVectors(out.TractionV, c, t.Viscous);
-      StoreVectors(out.Traction, c, t.Total);
-      StoreVectors(out.Force, c, t.Total, &A);
-      StoreLanes(out.NormalV + c, t.NormalViscous);
-      StoreLanes(out.Directional + c, Dot(t.Total, loadDirection));
+      StoreVectors<W, Stream>(out.Normal, c, normal);
+      StoreVectors<W, Stream>(out.TractionP, c, t.Pressure);
+      StoreVectors<W, Stream>(out.TractionV, c, t.Viscous);
+      StoreVectors<W, Stream>(out.Traction, c, t.Total);
+      StoreVectors<W, Stream>(out.Force, c, t.Total, &A);
+      StoreLanes<W, Stream>(out.NormalV + c, t.NormalViscous);
+      StoreLanes<W, Stream>(out.Directional + c, Dot(t.Total, loadDirection));
     }
     if (out.Cp)
     {
-      StoreLanes(out.Cp + c, tin.GaugePressure / S.DynamicPressure);
+      StoreLanes<W, Stream>(out.Cp + c, tin.GaugePressure / S.DynamicPressure);
     }
     if (out.Cf)
     {
-      StoreLanes(out.Cf + c, t.ShearMagnitude / S.DynamicPressure);
+      StoreLanes<W, Stream>(out.Cf + c, t.ShearMagnitude / S.DynamicPressure);
     }
-    return true;
   }
 
   /// Component k of faces c..c+W-1 from a double cell array of `Components`
@@ -600,7 +665,7 @@ struct FaceLoop
   }
 
   /// v (times `scale` when given) of faces c..c+W-1 into a 3-component array.
-  template <int W>
+  template <int W, bool Stream>
   static WALLLOADS_FACE_INLINE void StoreVectors(
     double* to, vtkIdType c, const Lanes<W> v[3], const Lanes<W>* scale = nullptr)
   {
@@ -611,7 +676,7 @@ struct FaceLoop
       w[1] = v[1] * *scale;
       w[2] = v[2] * *scale;
     }
-    StoreInterleaved(to + 3 * c, w);
+    StoreInterleaved<W, Stream>(to + 3 * c, w);
   }
 #endif
 
@@ -636,6 +701,7 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
     faceOk.assign(static_cast<std::size_t>(ds->GetNumberOfCells()), 0);
     out.FaceOk = faceOk.data();
   }
+  out.Stream = StreamOutputs(out, ds->GetNumberOfCells());
   FaceTopology<I> topo;
   MakeFaceTopology<I>(ds, topo);
   bool direct = true;

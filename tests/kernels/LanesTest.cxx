@@ -13,8 +13,10 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cstdint>
 #include <cstring>
+#include <iterator>
 #include <limits>
 #include <random>
 #include <vector>
@@ -297,6 +299,41 @@ LANES_TEST_INLINE void CompareStores()
 }
 
 #if WALLLOADS_AVX512_CLONE
+/// The streaming stores (non-temporal, 64-byte aligned): the same values in
+/// the same places as the plain stores, nothing outside.
+LANES_TEST_INLINE void CompareStreamedStores()
+{
+  const double guard = -7.5;
+  Lanes<8> v[3];
+  for (int k = 0; k < 3; ++k)
+  {
+    v[k] = Lanes<8>::Gather([k](int j) { return 100.0 * k + j + 0.25; });
+  }
+  // One line of guards on each side of 24 doubles, and of 8.
+  alignas(64) double vectors[8 + 24 + 8];
+  alignas(64) double scalars[8 + 8 + 8];
+  std::fill(std::begin(vectors), std::end(vectors), guard);
+  std::fill(std::begin(scalars), std::end(scalars), guard);
+  StoreInterleaved<8, true>(vectors + 8, v);
+  StoreLanes<8, true>(scalars + 8, v[2]);
+  StreamFence();
+  for (int i = 0; i < 8; ++i)
+  {
+    EXPECT_EQ(vectors[i], guard);
+    EXPECT_EQ(vectors[8 + 24 + i], guard);
+    EXPECT_EQ(scalars[i], guard);
+    EXPECT_EQ(scalars[16 + i], guard);
+  }
+  for (int j = 0; j < 8; ++j)
+  {
+    for (int k = 0; k < 3; ++k)
+    {
+      EXPECT_TRUE(Same(vectors[8 + 3 * j + k], v[k][j])) << "lane " << j << " component " << k;
+    }
+    EXPECT_TRUE(Same(scalars[8 + j], v[2][j])) << "lane " << j;
+  }
+}
+
 // The eight-lane checks, compiled for AVX-512 as the face loop's clone is.
 WALLLOADS_TARGET_AVX512 void CheckEightLanes()
 {
@@ -309,6 +346,7 @@ WALLLOADS_TARGET_AVX512 void CheckEightLanes()
   CompareTractions<8>();
   CompareLaneSums<8>();
   CompareStores<8>();
+  CompareStreamedStores();
 }
 #endif
 } // namespace

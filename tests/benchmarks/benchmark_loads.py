@@ -12,8 +12,9 @@ and on STDThread (all cores):
 
   * first execution: a new vtkWallTraction + vtkLoadIntegration pipeline
     (fresh output arrays, the orientation check on as by default), with all
-    per-face arrays and with forces only; and once with the check off, so
-    that the check's own cost shows;
+    per-face arrays and with forces only; and, interleaved, with the check
+    off, so that the check's own cost shows (the difference of the medians
+    of at least 7 of each);
   * re-execution of the same pipeline on the unchanged mesh (a time-step
     loop: Wall Traction is modified, the check is reused, the output arrays
     are rewritten in place); Wall Traction and Load Integration separately;
@@ -27,6 +28,10 @@ and on STDThread (all cores):
     the gradient components and for its tangential part, and
     vtkIntegrateAttributes (which multiplies by the cell areas);
   * the same sums written with numpy on the VTK arrays;
+  * the machine's own thread scaling, by wallloads_thread_scaling (built
+    with the tests, tests/benchmarks/thread_scaling.cxx): a loop that only
+    computes and one that only streams the face loop's traffic, on one
+    thread and on every core;
   * the memory floor of a loop on one thread and on all cores, in the same
     run: reading the inputs and rewriting arrays of the outputs' size with
     numpy, on one thread and split in equal parts between as many Python
@@ -35,12 +40,14 @@ and on STDThread (all cores):
     filters';
 
 and prints faces per second, the ratios, the thread speed-up, memory (output
-arrays, peak resident memory beyond what was held before), the cache counters
+arrays, peak resident memory beyond what was held before), the cache counters,
+the share of CPU time the virtual machine's host took (steal) during the run,
 and a summary table.
 """
 import argparse
 import os
 import platform
+import subprocess
 import threading
 import time
 
@@ -52,6 +59,7 @@ from vtkmodules.vtkFiltersCore import vtkArrayCalculator, vtkPolyDataNormals
 from vtkmodules.vtkFiltersParallel import vtkIntegrateAttributes
 from vtkmodules.vtkIOXML import vtkXMLPolyDataReader, vtkXMLPolyDataWriter
 
+import wallloads
 from wallloads.WallLoadsFilters import vtkLoadIntegration, vtkWallTraction
 
 MU = 1.8e-5
@@ -257,6 +265,27 @@ def timed_split(run, repeat, arg=None):
     return best, result
 
 
+def cpu_times():
+    """The machine's CPU time counters (/proc/stat, all CPUs): (steal, total)."""
+    try:
+        with open("/proc/stat") as handle:
+            fields = [int(v) for v in handle.readline().split()[1:9]]
+        return fields[7], sum(fields)
+    except (OSError, ValueError, IndexError):
+        return 0, 0
+
+
+def thread_scaling(faces):
+    """The output of wallloads_thread_scaling (next to the tests in the
+    build's bin directory), or why it is missing."""
+    exe = os.path.join(os.path.dirname(os.path.abspath(wallloads.__file__)), "..", "..", "bin",
+                       "wallloads_thread_scaling")
+    if not os.path.exists(exe):
+        return ["thread scaling: %s not built" % os.path.normpath(exe)]
+    out = subprocess.run([exe, str(faces)], capture_output=True, text=True, timeout=600)
+    return ["thread scaling, " + line for line in out.stdout.splitlines()]
+
+
 def memory_floor(pd, offsets, conn, pts, repeat, threads=1):
     """Same-run bound of a face loop on `threads` threads: the best time to
     read the arrays Wall Traction reads (pressure, gradient, offsets,
@@ -335,6 +364,9 @@ def main():
         pass
     say("machine: %s, %d cores, %s" % (cpu, os.cpu_count(), platform.platform()))
     say("load average at start: %s" % " ".join(open("/proc/loadavg").read().split()[:3]))
+    steal0 = cpu_times()
+    for line in thread_scaling(int(args.sizes[0] * 1e6)):
+        say(line)
     summary = []
     for millions in args.sizes:
         pd, pts, offsets, conn = quad_sphere(int(millions * 1e6))
@@ -361,11 +393,16 @@ def main():
                 # runs), interleaved with new pipelines without the check, so
                 # that both see the same machine; first executions are
                 # dominated by page faults and vary more than re-executions.
-                firsts, first_split, nocheck = [], None, []
-                for _ in range(max(3, args.repeat)):
+                # The check's cost is the difference of the medians of Wall
+                # Traction's time with and without it (a first execution's
+                # page faults vary by more than the check costs, so a
+                # difference of two best-of figures is mostly noise).
+                firsts, first_split, checked, nocheck = [], None, [], []
+                for _ in range(max(7, args.repeat)):
                     run = WallLoadsPipeline(pd, True, forces_only)
                     (t, wt_t, li_t), _ = timed_split(run, 1)
                     firsts.append(t)
+                    checked.append(wt_t)
                     first_split = (wt_t, li_t) if t == min(firsts) else first_split
                     del run
                     run = WallLoadsPipeline(pd, False, forces_only)
@@ -383,9 +420,10 @@ def main():
                 wt = run.wt
                 results[key] = (t, force)
                 results[key + " first"] = (min(firsts), force)
-                check_cost = first_split[0] - min(nocheck)
-                say("%-34s first %6.3f s (WT %.3f + LI %.3f) = %6.2f M faces/s; WT without check %.3f s"
-                      % (key, min(firsts), first_split[0], first_split[1], mf(min(firsts)), min(nocheck)))
+                check_cost = float(np.median(checked) - np.median(nocheck))
+                say("%-34s first %6.3f s (WT %.3f + LI %.3f) = %6.2f M faces/s; WT medians with check %.3f s,"
+                      " without %.3f s" % (key, min(firsts), first_split[0], first_split[1], mf(min(firsts)),
+                                           np.median(checked), np.median(nocheck)))
                 say("%-34s again %6.3f s (WT %.3f + LI %.3f) = %6.2f M faces/s; outputs %5.1f B/face,"
                       " peak new memory %5.1f B/face" % ("", t, wt_t, li_t, mf(t), out_bytes / nf,
                                                          peak * 1024.0 / nf))
@@ -396,7 +434,7 @@ def main():
                 say("%-34s Load Integration: sums handed over by Wall Traction %d, summed itself %d;"
                       " %.0f%% of the memory floor on as many threads"
                       % ("", run.li.GetLeavesHandedOver(), run.li.GetLeavesSummed(), 100 * floors[backend, what] / t))
-                summary.append((nf, key, min(firsts), t, wt_t, li_t, check_cost, min(nocheck)))
+                summary.append((nf, key, min(firsts), t, wt_t, li_t, check_cost, float(np.median(nocheck))))
                 if forces_only and millions <= 2.5:
                     # New objects with the same content each step (a reader).
                     copies = []
@@ -471,6 +509,10 @@ def main():
                       % (mode, stock / seq, stock / results["Sequential, " + mode + " first"][0], stock / thr,
                          npy / seq, seq / thr, floors["Sequential", mode] / floors["STDThread", mode]))
         del pd
+    steal1 = cpu_times()
+    if steal1[1] > steal0[1]:
+        say("\nsteal during the run: %.1f %% of the machine's CPU time (taken by the host)"
+            % (100.0 * (steal1[0] - steal0[0]) / (steal1[1] - steal0[1])))
     say("\n| faces | backend, arrays | first execution | re-execution (WT + LI) | check cost, first |")
     say("|---|---|---|---|---|")
     for nf, key, first, again, wt_t, li_t, check, nocheck in summary:

@@ -362,7 +362,7 @@ vtkSmartPointer<vtkDoubleArray> OutputArrayPool::Get(
   a->SetName(name);
   a->SetNumberOfComponents(components);
   // 64-byte aligned (a cache line, an AVX-512 register), so that the face
-  // loop may write it with streaming stores (WallTractionFaces.h,
+  // loop may write it with streaming stores (WallTractionTypes.h,
   // StreamOutputs); freed by VTK with free().
   const vtkIdType values = tuples * components;
   if (double* data = values > 0 ? AllocateAligned(static_cast<std::size_t>(values)) : nullptr)

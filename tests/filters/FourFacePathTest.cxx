@@ -273,7 +273,7 @@ TEST(FourFacePath, AnUncommonFaceInARun)
 
 // Outputs larger than the last-level cache are written past the caches
 // (streaming stores, eight faces at a time, from runs that start on a
-// multiple of eight faces: WallTractionFaces.h, StreamOutputs). Surfaces
+// multiple of eight faces: WallTractionTypes.h, StreamOutputs). Surfaces
 // above that threshold (32 MiB of outputs: 190 000 faces with all arrays,
 // 600 000 with forces only), on one thread and on several (whose parts start
 // anywhere: the faces before a multiple of eight go one by one), give every

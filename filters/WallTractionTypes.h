@@ -1,0 +1,127 @@
+// SPDX-License-Identifier: BSD-3-Clause
+#pragma once
+/**
+ * What Wall Traction's face loop (WallTractionFaces.h) reads and writes in
+ * one execution: the settings read from the properties, a leaf's input
+ * views and output pointers, the per-thread and per-rank tallies, the cache
+ * it keeps between executions, and whether its outputs are written past the
+ * caches (StreamOutputs).
+ */
+#include "WallLoadsMeshCache.h"
+#include "WallLoadsPipeline.h"
+#include "wallloads/CompensatedSum.h"
+#include "wallloads/EdgeBalance.h"
+#include "wallloads/LoadTotals.h"
+
+#include <cstdint>
+#include <utility>
+
+namespace wallloads
+{
+namespace traction
+{
+
+/// Everything one execution needs, read from the properties once.
+struct Settings
+{
+  ArraySelection Pressure, DensityArray, ShearStressArray, VelocityGradient, ViscosityArray,
+    TurbulentViscosity;
+  bool PressurePerUnitDensity = false;
+  bool ShearPerUnitDensity = false;
+  bool Kinematic = false;
+  int ShearSource = 0;
+  int Orientation = 0;
+  bool IncludeNormal = false;
+  bool CheckOrientation = true;
+  bool AllArrays = true;
+  double ReferencePressure = 0;
+  double Density = 1;
+  double Viscosity = 0;
+  double LoadDirection[3] = { 1, 0, 0 };
+  double DynamicPressure = 0; ///< 0: no coefficients
+};
+
+/// Local (this rank) results of one execution.
+struct Tally
+{
+  CompensatedSum<double> WettedArea;
+  double NonSurface = 0, Degenerate = 0, NonFinite = 0, Inconsistent = 0, OpenEdges = 0;
+  double Faces = 0;
+};
+
+/// Output arrays of one leaf, as raw pointers for the face loop.
+struct Outputs
+{
+  /// Orientation check: 0 invalid geometry, 1 valid, 2 valid and flipped
+  /// against the stored order by the Wall Normal array.
+  std::uint8_t* FaceOk = nullptr;
+  double* Area = nullptr;   // always made
+  double* ForceP = nullptr; // always made
+  double* ForceV = nullptr; // always made
+  double *Normal = nullptr, *TractionP = nullptr, *TractionV = nullptr, *Traction = nullptr,
+         *Force = nullptr, *NormalV = nullptr, *Directional = nullptr; // with all arrays
+  double* Cp = nullptr;
+  double* Cf = nullptr;
+  bool Full = true; ///< false: only Face Area, Pressure Force and Viscous Force
+  /// The eight-face loop stores past the caches (StreamOutputs).
+  bool Stream = false;
+};
+
+/**
+ * Whether the eight-face loop writes its outputs with streaming stores
+ * (Lanes.h, StreamVector): when every output array is 64-byte aligned (the
+ * OutputArrayPool allocates them so) and together they are larger than
+ * StreamBytes. The threshold is the last-level cache of the machines
+ * measured (32 MiB): what the loop writes beyond it has left the cache
+ * before any consumer reads it, so keeping it there only costs the read of
+ * every line before it is written; below it, a consumer may still find the
+ * outputs in cache, and plain stores keep them there.
+ */
+constexpr double StreamBytes = 32.0 * 1024 * 1024;
+inline bool StreamOutputs(const Outputs& out, vtkIdType faces)
+{
+  const std::pair<const double*, int> arrays[] = { { out.Area, 1 }, { out.ForceP, 3 },
+    { out.ForceV, 3 }, { out.Normal, 3 }, { out.TractionP, 3 }, { out.TractionV, 3 },
+    { out.Traction, 3 }, { out.Force, 3 }, { out.NormalV, 1 }, { out.Directional, 1 },
+    { out.Cp, 1 }, { out.Cf, 1 } };
+  double bytes = 0;
+  for (const auto& a : arrays)
+  {
+    if (a.first && reinterpret_cast<std::uintptr_t>(a.first) % 64 != 0)
+    {
+      return false;
+    }
+    bytes += a.first ? 8.0 * a.second * static_cast<double>(faces) : 0.0;
+  }
+  return bytes >= StreamBytes;
+}
+
+/// Inputs of one leaf.
+struct Inputs
+{
+  ArrayView Pressure, Density, Shear, Gradient, Viscosity, TurbulentViscosity, WallNormal;
+  PointView Points;
+  const unsigned char* Ghosts = nullptr;
+};
+
+struct ThreadTally
+{
+  CompensatedSum<double> Area;
+  vtkIdType NonSurface = 0, Degenerate = 0, NonFinite = 0, Faces = 0;
+  EdgeBalance Balance; ///< orientation certificate, when the check runs
+  /// Load Integration's sums of these faces (moments about the origin),
+  /// handed over with the output (WallLoadsMeshCache.h).
+  LoadSums<double> Loads;
+};
+
+/// What the filter keeps between executions (WallLoadsMeshCache.h).
+struct LeafCache
+{
+  MeshResultCache* Results = nullptr;
+  OutputArrayPool* Pool = nullptr;
+  ValidatedCells* Cells = nullptr; ///< offsets found well formed before
+  std::size_t Slot = 0; ///< leaf ordinal
+};
+
+} // namespace traction
+} // namespace wallloads

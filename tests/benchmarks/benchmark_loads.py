@@ -32,6 +32,10 @@ and on STDThread (all cores):
     with the tests, tests/benchmarks/thread_scaling.cxx): a loop that only
     computes and one that only streams the face loop's traffic, on one
     thread and on every core;
+  * the thread speed-up of the re-execution on smaller spheres (forces
+    only, --scaling-sizes, best of 30), whose data fit the last-level
+    cache in part: where the second thread loses time, and whether the loss
+    grows with the data moved;
   * the memory floor of a loop on one thread and on all cores, in the same
     run: reading the inputs and rewriting arrays of the outputs' size with
     numpy, on one thread and split in equal parts between as many Python
@@ -286,6 +290,24 @@ def thread_scaling(faces):
     return ["thread scaling, " + line for line in out.stdout.splitlines()]
 
 
+def speed_up_by_size(millions, repeat=30):
+    """Re-execution, forces only, best of `repeat` on one thread and on all
+    cores; the time the threads take beyond half the one-thread time, per
+    face (a fixed cost shows as a loss that shrinks per face with size)."""
+    pd = quad_sphere(int(millions * 1e6))[0]
+    nf = pd.GetNumberOfCells()
+    best = {}
+    for backend in ("Sequential", "STDThread"):
+        vtkSMPTools.SetBackend(backend)
+        run = WallLoadsPipeline(pd, True, True)
+        best[backend] = timed_split(run, repeat)[0][1]
+        del run
+    one, more = best["Sequential"], best["STDThread"]
+    say("%-34s %7d faces: one thread %.2f ms, %d threads %.2f ms, speed-up %.2fx; beyond half the"
+        " one-thread time %.2f ns/face" % ("speed-up by size (WT, forces only)", nf, one * 1e3, os.cpu_count(),
+                                          more * 1e3, one / more, (more - one / 2) / nf * 1e9))
+
+
 def memory_floor(pd, offsets, conn, pts, repeat, threads=1):
     """Same-run bound of a face loop on `threads` threads: the best time to
     read the arrays Wall Traction reads (pressure, gradient, offsets,
@@ -353,6 +375,8 @@ def main():
     ap.add_argument("--repeat", type=int, default=5)
     ap.add_argument("--no-file", action="store_true", help="skip the file step")
     ap.add_argument("--no-stock", action="store_true", help="skip the stock chain and numpy")
+    ap.add_argument("--scaling-sizes", type=float, nargs="*", default=[0.25, 0.5, 1.0],
+                    help="smaller spheres (millions of faces) for the thread speed-up by size")
     args = ap.parse_args()
     vtkObject.GlobalWarningDisplayOff()
     vtkOutputWindow.GetInstance().SetDisplayModeToNever()  # Load Integration's notices
@@ -367,6 +391,8 @@ def main():
     steal0 = cpu_times()
     for line in thread_scaling(int(args.sizes[0] * 1e6)):
         say(line)
+    for millions in args.scaling_sizes:
+        speed_up_by_size(millions)
     summary = []
     for millions in args.sizes:
         pd, pts, offsets, conn = quad_sphere(int(millions * 1e6))

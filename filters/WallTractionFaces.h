@@ -340,7 +340,7 @@ struct FaceLoop
           Lanes<W>(loadDirection[1]), Lanes<W>(loadDirection[2]) };
         LoadSums<Lanes<W>> lanes; // Load Integration's sums, one face per lane
         vtkIdType c = begin;
-        if (W == 8 && out.Stream)
+        if (Streaming<W>(out))
         {
           // Streaming stores need runs that start on a multiple of eight
           // faces (64-byte aligned stores): the faces before it one by one.
@@ -369,12 +369,9 @@ struct FaceLoop
         {
           oneFace(c);
         }
-        if constexpr (W == 8)
+        if (Streaming<W>(out))
         {
-          if (out.Stream)
-          {
-            StreamFence(); // before the thread reports its part done
-          }
+          StreamFence(); // before the thread reports its part done
         }
         MergeLaneTallies(lanes, tally);
         return;
@@ -599,7 +596,6 @@ void RunFaces(const Settings& s, const Inputs& in, Outputs out, vtkDataSet* ds, 
     faceOk.assign(static_cast<std::size_t>(ds->GetNumberOfCells()), 0);
     out.FaceOk = faceOk.data();
   }
-  out.Stream = StreamOutputs(out, ds->GetNumberOfCells());
   FaceTopology<I> topo;
   MakeFaceTopology<I>(ds, topo);
   bool direct = true;

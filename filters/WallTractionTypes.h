@@ -14,7 +14,6 @@
 #include "wallloads/LoadTotals.h"
 
 #include <cstdint>
-#include <utility>
 
 namespace wallloads
 {
@@ -69,31 +68,26 @@ struct Outputs
 
 /**
  * Whether the eight-face loop writes its outputs with streaming stores
- * (Lanes.h, StreamVector): when every output array is 64-byte aligned (the
- * OutputArrayPool allocates them so) and together they are larger than
- * StreamBytes. The threshold is the last-level cache of the machines
+ * (Lanes.h, StreamVector), decided where the output arrays are made
+ * (MakeOutputs in vtkWallTraction.cxx): when every output array is 64-byte
+ * aligned (the OutputArrayPool allocates them so) and together they take at
+ * least StreamBytes. The threshold is the last-level cache of the machines
  * measured (32 MiB): what the loop writes beyond it has left the cache
  * before any consumer reads it, so keeping it there only costs the read of
  * every line before it is written; below it, a consumer may still find the
  * outputs in cache, and plain stores keep them there.
  */
 constexpr double StreamBytes = 32.0 * 1024 * 1024;
-inline bool StreamOutputs(const Outputs& out, vtkIdType faces)
+inline bool StreamOutputs(double bytes, bool aligned)
 {
-  const std::pair<const double*, int> arrays[] = { { out.Area, 1 }, { out.ForceP, 3 },
-    { out.ForceV, 3 }, { out.Normal, 3 }, { out.TractionP, 3 }, { out.TractionV, 3 },
-    { out.Traction, 3 }, { out.Force, 3 }, { out.NormalV, 1 }, { out.Directional, 1 },
-    { out.Cp, 1 }, { out.Cf, 1 } };
-  double bytes = 0;
-  for (const auto& a : arrays)
-  {
-    if (a.first && reinterpret_cast<std::uintptr_t>(a.first) % 64 != 0)
-    {
-      return false;
-    }
-    bytes += a.first ? 8.0 * a.second * static_cast<double>(faces) : 0.0;
-  }
-  return bytes >= StreamBytes;
+  return aligned && bytes >= StreamBytes;
+}
+
+/// Whether a W-lane loop streams these outputs (only the eight-lane one does).
+template <int W>
+constexpr bool Streaming(const Outputs& out)
+{
+  return W == 8 && out.Stream;
 }
 
 /// Inputs of one leaf.

@@ -29,8 +29,8 @@
 #include "vtkSmartPointer.h"
 
 #include <cmath>
-#include <limits>
 #include <cstdint>
+#include <limits>
 #include <sstream>
 #include <vector>
 
@@ -53,15 +53,24 @@ using namespace wallloads::traction;
 /// when only the pool holds them (WallLoadsMeshCache.h), else new.
 Outputs MakeOutputs(const Settings& s, vtkDataSet* out, const LeafCache& cache)
 {
+  double bytes = 0;     // of all output arrays
+  bool aligned = true; // every one 64-byte aligned (StreamOutputs)
   auto NewCellDoubleArray = [&](vtkDataSet* ds, const char* name, int components) -> double* {
+    double* data = nullptr;
     if (!cache.Pool)
     {
-      return wallloads::NewCellDoubleArray(ds, name, components);
+      data = wallloads::NewCellDoubleArray(ds, name, components);
     }
-    vtkSmartPointer<vtkDoubleArray> a =
-      cache.Pool->Get(cache.Slot, name, components, ds->GetNumberOfCells());
-    ds->GetCellData()->AddArray(a);
-    return a->GetPointer(0);
+    else
+    {
+      vtkSmartPointer<vtkDoubleArray> a =
+        cache.Pool->Get(cache.Slot, name, components, ds->GetNumberOfCells());
+      ds->GetCellData()->AddArray(a);
+      data = a->GetPointer(0);
+    }
+    bytes += 8.0 * components * static_cast<double>(ds->GetNumberOfCells());
+    aligned = aligned && reinterpret_cast<std::uintptr_t>(data) % 64 == 0;
+    return data;
   };
   Outputs o;
   o.Full = s.AllArrays;
@@ -86,6 +95,7 @@ Outputs MakeOutputs(const Settings& s, vtkDataSet* out, const LeafCache& cache)
       o.Cf = NewCellDoubleArray(out, names::SkinFrictionCoefficient, 1);
     }
   }
+  o.Stream = StreamOutputs(bytes, aligned);
   return o;
 }
 

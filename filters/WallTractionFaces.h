@@ -349,8 +349,13 @@ struct FaceLoop
             oneFace(c);
           }
         }
+        const FaceStreams ahead(this->In, this->ShearSource() == vtkWallTraction::WALL_SHEAR_STRESS);
         for (; c + W <= end; c += W)
         {
+          if (c + PrefetchAhead + W <= end)
+          {
+            ahead.Prefetch(c + PrefetchAhead, W);
+          }
           I buffer[W][4];
           const I* ids[W];
           const int n = topo.template RunOf<W>(c, ids, buffer);

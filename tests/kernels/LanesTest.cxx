@@ -366,6 +366,39 @@ TEST(Lanes, StoresPutEveryLaneInPlace)
   CompareStores<4>();
 }
 
+TEST(Lanes, PrefetchAsksForEveryLineOfTheBytes)
+{
+  // Every byte of [p, p + n) lies on one of the lines CacheLinesOf gives,
+  // and each of those lines holds one of the bytes (no line before or after
+  // the range), for every start within a line and lengths around a line.
+  alignas(64) static char block[64 * 12];
+  for (int start = 0; start < 64; ++start)
+  {
+    for (std::uintptr_t n : { 0, 1, 8, 63, 64, 65, 72, 127, 128, 576, 577 })
+    {
+      const char* p = block + start;
+      const CacheLines lines = CacheLinesOf(p, n);
+      if (n == 0)
+      {
+        EXPECT_EQ(lines.Count, 0u);
+        continue;
+      }
+      const std::uintptr_t first = reinterpret_cast<std::uintptr_t>(p);
+      const std::uintptr_t last = first + n - 1;
+      EXPECT_EQ(lines.First % 64, 0u);
+      EXPECT_LE(lines.First, first) << "start " << start << ", " << n << " bytes";
+      EXPECT_GT(lines.First + 64, first) << "start " << start << ", " << n << " bytes";
+      EXPECT_LE(lines.First + 64 * (lines.Count - 1), last) << "start " << start << ", " << n;
+      EXPECT_GT(lines.First + 64 * lines.Count, last) << "start " << start << ", " << n << " bytes";
+      PrefetchBytes(p, n); // a hint: nothing to observe but that it is harmless
+    }
+  }
+  // The gradient of a run of eight faces (72 bytes each) from a line start:
+  // nine lines; from the middle of a line: ten.
+  EXPECT_EQ(CacheLinesOf(block, 576).Count, 9u);
+  EXPECT_EQ(CacheLinesOf(block + 32, 576).Count, 10u);
+}
+
 TEST(Lanes, EightLanesEqualTheScalarKernels)
 {
 #if WALLLOADS_AVX512_CLONE

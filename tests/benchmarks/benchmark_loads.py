@@ -36,6 +36,11 @@ and on STDThread (all cores):
     only, --scaling-sizes, best of 30), whose data fit the last-level
     cache in part: where the second thread loses time, and whether the loss
     grows with the data moved;
+  * the thread speed-up in pairs (--pairs, default 40): re-executions on
+    one thread and on every core alternately, with the memory floor timed
+    beside each, so that each ratio compares timings a few tens of
+    milliseconds apart on a host whose memory bandwidth changes over
+    seconds; with what a compute-plus-memory model predicts from them;
   * the memory floor of a loop on one thread and on all cores, in the same
     run: reading the inputs and rewriting arrays of the outputs' size with
     numpy, on one thread and split in equal parts between as many Python
@@ -308,6 +313,42 @@ def speed_up_by_size(millions, repeat=30):
                                           more * 1e3, one / more, (more - one / 2) / nf * 1e9))
 
 
+def floor_inputs(pd, offsets, conn, pts):
+    """The arrays Wall Traction reads, flat: pressure, gradient, offsets,
+    connectivity, points."""
+    return [a.ravel() for a in (vtk_to_numpy(pd.GetCellData().GetArray("p")),
+                                vtk_to_numpy(pd.GetCellData().GetArray("grad")), offsets, conn, pts)]
+
+
+def part(a, k, threads):
+    """Part k of `threads` equal parts of a flat array."""
+    return a[k * len(a) // threads:(k + 1) * len(a) // threads]
+
+
+def on_threads(threads, work):
+    """Wall-clock time of work(k) for k = 0..threads-1, each on its own
+    Python thread (numpy releases the interpreter lock in the loops used)."""
+    workers = [threading.Thread(target=work, args=(k,)) for k in range(1, threads)]
+    t0 = time.perf_counter()
+    for w in workers:
+        w.start()
+    work(0)
+    for w in workers:
+        w.join()
+    return time.perf_counter() - t0
+
+
+def read_once(inputs, threads):
+    return on_threads(threads, lambda k: [np.add.reduce(part(a, k, threads)) for a in inputs])
+
+
+def rewrite_once(out, threads):
+    return on_threads(threads, lambda k: part(out, k, threads).fill(0.0))
+
+
+OUTPUT_DOUBLES = {"forces only": 7, "all arrays": 24}
+
+
 def memory_floor(pd, offsets, conn, pts, repeat, threads=1):
     """Same-run bound of a face loop on `threads` threads: the best time to
     read the arrays Wall Traction reads (pressure, gradient, offsets,
@@ -316,37 +357,68 @@ def memory_floor(pd, offsets, conn, pts, repeat, threads=1):
     numpy; with several threads each Python thread takes an equal part of
     every array (numpy releases the interpreter lock in these loops)."""
     nf = pd.GetNumberOfCells()
-    inputs = [vtk_to_numpy(pd.GetCellData().GetArray("p")), vtk_to_numpy(pd.GetCellData().GetArray("grad")),
-              offsets, conn, pts]
-    inputs = [a.ravel() for a in inputs]
-
-    def part(a, k):
-        return a[k * len(a) // threads:(k + 1) * len(a) // threads]
-
-    def best_of(work):
-        best = float("inf")
-        for _ in range(repeat):
-            workers = [threading.Thread(target=work, args=(k,)) for k in range(1, threads)]
-            t0 = time.perf_counter()
-            for w in workers:
-                w.start()
-            work(0)
-            for w in workers:
-                w.join()
-            best = min(best, time.perf_counter() - t0)
-        return best
-
-    def read(k):
-        for a in inputs:
-            np.add.reduce(part(a, k))
-
-    read_time = best_of(read)
+    inputs = floor_inputs(pd, offsets, conn, pts)
+    read_time = min(read_once(inputs, threads) for _ in range(repeat))
     writes = {}
-    for label, per_face in (("forces only", 7), ("all arrays", 24)):
+    for label, per_face in OUTPUT_DOUBLES.items():
         out = np.ones(nf * per_face)
-        writes[label] = best_of(lambda k: part(out, k).fill(0.0))
+        writes[label] = min(rewrite_once(out, threads) for _ in range(repeat))
         del out
     return read_time, writes
+
+
+def paired_speed_up(pd, offsets, conn, pts, forces_only, pairs):
+    """The thread speed-up of the re-execution measured in pairs: Wall
+    Traction + Load Integration on one thread (Sequential) and on every core
+    (STDThread) alternately, `pairs` times, with the memory floor of the same
+    outputs timed the same way beside them. Each ratio then compares two
+    timings taken a few tens of milliseconds apart: the memory bandwidth a
+    shared host leaves this machine changes over seconds, and a ratio of two
+    best-of figures taken minutes apart measures that change as much as the
+    second thread. Prints the medians, the median and spread of the pairs'
+    ratios, and what the compute-plus-memory model says of them."""
+    what = "forces only" if forces_only else "all arrays"
+    nf = pd.GetNumberOfCells()
+    threads = os.cpu_count()
+    run = WallLoadsPipeline(pd, True, forces_only)
+    for backend in ("Sequential", "STDThread"):
+        vtkSMPTools.SetBackend(backend)
+        timed_split(run, 2)  # both output buffers of the pool exist
+    inputs = floor_inputs(pd, offsets, conn, pts)
+    out = np.ones(nf * OUTPUT_DOUBLES[what])
+    t1, t2, f1, f2 = [], [], [], []
+    for _ in range(pairs):
+        vtkSMPTools.SetBackend("Sequential")
+        run()
+        t1.append(sum(run.split))
+        f1.append(read_once(inputs, 1) + rewrite_once(out, 1))
+        vtkSMPTools.SetBackend("STDThread")
+        run()
+        t2.append(sum(run.split))
+        f2.append(read_once(inputs, threads) + rewrite_once(out, threads))
+    vtkSMPTools.SetBackend("Sequential")
+    del run, out
+    t1, t2, f1, f2 = (np.array(v) for v in (t1, t2, f1, f2))
+    ratios, floor_ratios = t1 / t2, f1 / f2
+    T1, T2, F1, F2 = (float(np.median(v)) for v in (t1, t2, f1, f2))
+    # Model: the time beyond the floor is work that halves on two threads;
+    # the floor is what the memory system takes on as many threads.
+    predicted = (T1 - F1) / 2 + F2
+    needed = 18 * F2 - 9 * F1  # one-thread time at which the model gives 1.8x
+    label = "thread speed-up in pairs, " + what
+    say("%-34s %d pairs: medians one thread %.2f ms, %d threads %.2f ms; pairs' ratios median %.2fx"
+        " (quartiles %.2f-%.2fx, %d of %d at 1.8x or more); best times %.2fx"
+        % (label, pairs, T1 * 1e3, threads, T2 * 1e3, np.median(ratios), np.percentile(ratios, 25),
+           np.percentile(ratios, 75), int((ratios >= 1.8).sum()), pairs, t1.min() / t2.min()))
+    say("%-34s memory floor in the same pairs: %.2f ms, %.2f ms, ratios median %.2fx; the loop on one"
+        " thread at %.0f %% of its floor" % ("", F1 * 1e3, F2 * 1e3, np.median(floor_ratios), 100 * F1 / T1))
+    say("%-34s model (T1 - F1)/2 + F2 = %.2f ms for %.2f ms measured (%+.0f %%); two threads at the floor"
+        " would give %.2fx (T1/F2); 1.8x by the model needs a one-thread time of %.1f ms (%.1f M faces/s)"
+        % ("", predicted * 1e3, T2 * 1e3, 100 * (T2 - predicted) / predicted, T1 / F2, needed * 1e3,
+           nf / needed / 1e6 if needed > 0 else float("inf")))
+    return dict(T1=T1, T2=T2, F1=F1, F2=F2, ratio=float(np.median(ratios)),
+                floor_ratio=float(np.median(floor_ratios)), predicted=predicted, needed=needed,
+                reached=int((ratios >= 1.8).sum()), pairs=pairs)
 
 
 STEP_ENCODINGS = ("inline binary", "appended raw")
@@ -375,6 +447,8 @@ def main():
     ap.add_argument("--repeat", type=int, default=5)
     ap.add_argument("--no-file", action="store_true", help="skip the file step")
     ap.add_argument("--no-stock", action="store_true", help="skip the stock chain and numpy")
+    ap.add_argument("--pairs", type=int, default=40,
+                    help="pairs of one-thread and all-core re-executions for the thread speed-up (0: skip)")
     ap.add_argument("--scaling-sizes", type=float, nargs="*", default=[0.25, 0.5, 1.0],
                     help="smaller spheres (millions of faces) for the thread speed-up by size")
     args = ap.parse_args()
@@ -393,7 +467,7 @@ def main():
         say(line)
     for millions in args.scaling_sizes:
         speed_up_by_size(millions)
-    summary = []
+    summary, paired = [], []
     for millions in args.sizes:
         pd, pts, offsets, conn = quad_sphere(int(millions * 1e6))
         nf = pd.GetNumberOfCells()
@@ -480,6 +554,9 @@ def main():
                     # threads, forces only: 110 against 45 ms).
                     del copies, steps
                 del run
+        for forces_only in (False, True) if args.pairs > 0 else ():
+            paired.append((nf, "forces only" if forces_only else "all arrays",
+                           paired_speed_up(pd, offsets, conn, pts, forces_only, args.pairs)))
         vtkSMPTools.SetBackend("STDThread")
         for encoding in () if args.no_file else STEP_ENCODINGS:
             path = "/tmp/wallloads_benchmark_step_%d.vtp" % nf
@@ -548,6 +625,16 @@ def main():
             continue
         say("| %d | %s | %.2f M faces/s | %.2f M faces/s (%.3f + %.3f s) | %.0f ms (%.0f%% of WT without check) |"
               % (nf, key, nf / first / 1e6, nf / again / 1e6, wt_t, li_t, check * 1e3, 100 * check / nocheck))
+
+
+    if paired:
+        say("\n| faces | arrays | one thread | %d threads | speed-up (median of pairs) | memory floor's |"
+            " model | 1.8x needs one thread at |" % os.cpu_count())
+        say("|---|---|---|---|---|---|---|---|")
+        for nf, what, r in paired:
+            say("| %d | %s | %.1f ms | %.1f ms | %.2fx (%d of %d pairs at 1.8x) | %.2fx | %.1f ms | %.1f ms |"
+                % (nf, what, r["T1"] * 1e3, r["T2"] * 1e3, r["ratio"], r["reached"], r["pairs"],
+                   r["floor_ratio"], r["predicted"] * 1e3, r["needed"] * 1e3))
 
 
 if __name__ == "__main__":

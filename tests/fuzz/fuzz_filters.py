@@ -27,6 +27,12 @@ every filter it checks:
 - Sequential and STDThread backends give the same output to 1e-12;
 - clean cases: per-face forces and totals equal an independent numpy
   computation (fuzz_oracle.py) to 1e-9 of their scale;
+- large surfaces (1 % of the seeds, beside the case drawn; --chains
+  large-surface for these alone): a surface above the 32 MiB at which Wall
+  Traction writes its per-face arrays with streaming stores, well formed or
+  with degenerate faces, NaN values and ghost flags sprinkled: the checks
+  above, output arrays 64-byte aligned, and every per-face array bit for bit
+  what Wall Traction gives on pieces of it small enough for plain stores;
 - re-execution: one Wall Traction run over three steps of the same input,
   each step unchanged, handed over as new objects with the same content, or
   edited in place and marked Modified() (a face reversed, a point moved, an
@@ -253,6 +259,13 @@ def available(ds_or_tree):
     return out
 
 
+def as_stored(have, name):
+    """The selection of array `name` where it is stored: (association, name)
+    for SetInputArrayToProcess, 0 points, 1 cells (`available` gives whether
+    it is on points)."""
+    return (0 if have[name][0] else 1, name)
+
+
 def wall_traction_settings(rng, data, clean):
     have = available(data)
     s = {"PressureKind": int(rng.integers(0, 2)), "ReferencePressure": float(rng.normal() * 1e5),
@@ -268,7 +281,7 @@ def wall_traction_settings(rng, data, clean):
     for prop, name, p in roles:
         if clean:
             if name in have and rng.random() < p:
-                s[prop] = (have[name][0], name)
+                s[prop] = as_stored(have, name)
         elif rng.random() < p:
             s[prop] = I.selection(rng, name, clean)
     if clean:
@@ -386,7 +399,7 @@ def shear_projection_settings(rng, volume, clean):
                          (3, "viscosity", 0.2), (4, "eddy_viscosity", 0.2), (5, "density", 0.2)):
         if rng.random() < p:
             if clean and name in have:
-                s["array%d" % idx] = (have[name][0], name)
+                s["array%d" % idx] = as_stored(have, name)
             elif not clean:
                 s["array%d" % idx] = I.selection(rng, name, clean)
     if not clean:
@@ -562,6 +575,89 @@ def run_surface_chain(rng, clean, stats):
     if ok2:
         run_reexecutions(np.random.default_rng(seq.spawn(1)[0]), "Load Integration",
                          lambda: make_load_integration(ls), wt_out, stats)
+
+
+def piece_of(ds, begin, end):
+    """Cells [begin, end) of a polydata or unstructured grid as a dataset of
+    their own: the same points object, the cells' ids and cell arrays copied."""
+    cells = ds.GetPolys() if isinstance(ds, vtkPolyData) else ds.GetCells()
+    offsets = vtk_to_numpy(cells.GetOffsetsArray()).astype(np.int64)
+    conn = vtk_to_numpy(cells.GetConnectivityArray()).astype(np.int64)
+    wide = cells.IsStorage64Bit()
+    part = I.cell_array_from(offsets[begin:end + 1] - offsets[begin], conn[offsets[begin]:offsets[end]], wide)
+    piece = ds.NewInstance()
+    piece.SetPoints(ds.GetPoints())
+    if isinstance(ds, vtkPolyData):
+        piece.SetPolys(part)
+    else:
+        types = vtk_to_numpy(ds.GetCellTypesArray())[begin:end]
+        ct = I.vtkUnsignedCharArray()
+        ct.DeepCopy(I.numpy_to_vtk(np.ascontiguousarray(types), deep=1, array_type=3))
+        piece.SetCells(ct, part)
+    for k in range(ds.GetCellData().GetNumberOfArrays()):
+        a = ds.GetCellData().GetArray(k)
+        values = vtk_to_numpy(a).reshape(ds.GetNumberOfCells(), -1)[begin:end]
+        b = a.NewInstance()
+        b.SetName(a.GetName())
+        b.SetNumberOfComponents(a.GetNumberOfComponents())
+        b.SetNumberOfTuples(end - begin)
+        vtk_to_numpy(b).reshape(end - begin, -1)[:] = values
+        piece.GetCellData().AddArray(b)
+    return piece
+
+
+def run_large_surface(rng, clean, stats):
+    """A surface above the streaming threshold (fuzz_inputs.large_surface),
+    where Wall Traction writes its per-face arrays with streaming stores:
+    the checks of any surface (input unchanged, both backends agree, NaN
+    faces are the counted skipped ones), output arrays 64-byte aligned (else
+    the loop would not stream), and every per-face array equal, bit for bit,
+    to what Wall Traction gives on pieces of the same surface small enough
+    to be written with plain stores (cut at random faces)."""
+    data, forces_only = I.large_surface(rng, clean)
+    before = digest(data)
+    ws = wall_traction_settings(rng, data, True)  # the arrays it has, as stored
+    ws["PerFaceArrays"] = int(forces_only)  # vtkWallTraction.FORCES_ONLY is 1
+    if not clean:
+        for key in ("ReferencePressure", "Density", "Viscosity"):
+            if rng.random() < 0.15:
+                ws[key] = float(I.hostile_number(rng, ws[key] or 1.0))
+    ok, outs, msgs = run_both_backends(lambda: make_wall_traction(ws), [data])
+    check(digest(data) == before, "Wall Traction modified its input (large surface)")
+    check_failure_reported("Wall Traction", ok, msgs)
+    stats["large_ok" if ok else "large_fail"] += 1
+    if not ok:
+        return
+    out = outs[0]
+    check_wall_traction(out, msgs)
+    made = [out.GetCellData().GetArray(name) for name in sorted(MADE_ARRAYS)]
+    made = [a for a in made if a is not None]
+    total = sum(a.GetNumberOfValues() * a.GetDataTypeSize() for a in made)
+    check(total >= I.STREAM_BYTES, "large surface: %d bytes of per-face arrays, below the streaming threshold"
+          % total)
+    for a in made:
+        address = vtk_to_numpy(a).__array_interface__["data"][0]
+        check(address % 64 == 0, "large surface: '%s' is not 64-byte aligned (no streaming)" % a.GetName())
+    n = data.GetNumberOfCells()
+    cuts = np.unique(np.r_[0, rng.integers(1, n, size=n // 90000 + 2), n])
+    cuts = np.unique(np.r_[cuts, np.arange(0, n, 150000), n])  # every piece below the threshold
+    vtkSMPTools.SetBackend(str(rng.choice(["Sequential", "STDThread"])))
+    piece_settings = dict(ws, CheckOrientation=0)
+    for begin, end in zip(cuts[:-1], cuts[1:]):
+        ok_p, outs_p, _ = execute(make_wall_traction(piece_settings), [piece_of(data, int(begin), int(end))])
+        check(ok_p, "large surface: Wall Traction failed on faces %d-%d alone" % (begin, end))
+        for a in made:
+            whole = vtk_to_numpy(a).reshape(n, -1)[begin:end]
+            alone = outs_p[0].GetCellData().GetArray(a.GetName())
+            check(alone is not None, "large surface: no '%s' on a piece" % a.GetName())
+            alone = vtk_to_numpy(alone).reshape(end - begin, -1)
+            same = np.array_equal(whole.view(np.uint64), alone.view(np.uint64)) or \
+                np.array_equal(whole, alone, equal_nan=True)
+            if not same:
+                bad = np.flatnonzero(~((whole == alone) | (np.isnan(whole) & np.isnan(alone))).all(axis=1))
+                check(False, "large surface: '%s' of face %d differs from the same face in faces %d-%d alone:"
+                      " %s vs %s" % (a.GetName(), begin + bad[0], begin, end, whole[bad[0]], alone[bad[0]]))
+    stats["large pieces"] += len(cuts) - 1
 
 
 def deep_copy(data):
@@ -807,12 +903,16 @@ def run_history(rng, clean, stats):
 
 
 CHAINS = {"surface": run_surface_chain, "raw-integration": run_raw_integration, "volume": run_volume_chain,
-          "history": run_history}
+          "history": run_history, "large-surface": run_large_surface}
 WEIGHTS = {"surface": 0.6, "raw-integration": 0.1, "volume": 0.3}
 # Load History runs beside the chain drawn for a seed (in 10 % of the seeds,
 # from a random stream of its own), so the cases the other chains draw for a
 # seed stay those they drew before it was added.
 HISTORY_SHARE = 0.1
+# A surface above the streaming threshold (run_large_surface) runs beside the
+# chain drawn for a seed in 1 % of the seeds, from a stream of its own, for the
+# same reason; it takes a second or so.
+LARGE_SHARE = 0.01
 
 
 def run_case(seed, chains, stats):
@@ -824,6 +924,9 @@ def run_case(seed, chains, stats):
         chain = names[int(rng.choice(len(names), p=p / p.sum()))]
         stats["clean" if clean else "hostile"] += 1
         CHAINS[chain](rng, clean, stats)
+    large_rng = np.random.default_rng([seed, 11])
+    if "large-surface" in chains and (large_rng.random() < LARGE_SHARE or names == []):
+        run_large_surface(large_rng, large_rng.random() < 0.3, stats)
     history_rng = np.random.default_rng([seed, 10])
     if "history" in chains and (history_rng.random() < HISTORY_SHARE or names == []):
         run_history(history_rng, clean, stats)

@@ -163,6 +163,11 @@ def cell_array_of(cells, wide):
     offsets = np.zeros(len(cells) + 1, dtype=np.int64)
     offsets[1:] = np.cumsum([len(c) for c in cells]) if cells else []
     conn = np.concatenate([np.asarray(c, dtype=np.int64) for c in cells]) if cells else np.zeros(0, np.int64)
+    return cell_array_from(offsets, conn, wide)
+
+
+def cell_array_from(offsets, conn, wide):
+    """vtkCellArray from int64 offsets and connectivity, 32- or 64-bit storage."""
     ca = vtkCellArray()
     if wide:
         o, c = vtkTypeInt64Array(), vtkTypeInt64Array()
@@ -418,3 +423,74 @@ def selection(rng, name, clean):
     if rng.random() < 0.05:
         name = pick(rng, ARRAY_NAMES)
     return (int(rng.random() < 0.35), name)
+
+
+# --- large surfaces ------------------------------------------------------------------
+# Wall Traction writes its per-face arrays with streaming stores when they
+# take at least 32 MiB together (WallTractionTypes.h, StreamBytes): 174 763
+# faces with all arrays (24 doubles a face), 599 187 with forces only (7).
+STREAM_BYTES = 32 * 1024 * 1024
+STREAM_FACES = {"all arrays": 174763, "forces only": 599187}
+
+
+def large_surface(rng, clean):
+    """A surface above the streaming threshold, and whether its case asks
+    for forces only: a wavy grid of quads (some split into two triangles in
+    place, so that runs of one corner count break at random faces), polydata
+    or an unstructured grid, 32- or 64-bit ids, float or double points,
+    double cell arrays (pressure, gradient, wall shear; sometimes density and
+    viscosities). Hostile cases sprinkle degenerate faces (a repeated
+    corner), NaN and Inf values and ghost flags at random faces. Built with
+    numpy, in well under a second."""
+    forces_only = rng.random() < 0.3
+    target = int(STREAM_FACES["forces only" if forces_only else "all arrays"] * rng.uniform(1.01, 1.3))
+    nv = int(rng.integers(200, 700))
+    nu = target // nv + 1
+    u, v = np.meshgrid(np.linspace(0, 1, nu + 1), np.linspace(0, 1, nv + 1), indexing="ij")
+    pts = np.stack([u.ravel(), v.ravel(), 0.05 * np.sin(7 * u.ravel()) * np.cos(5 * v.ravel())], axis=1)
+    pts = pts * pick(rng, [1.0, 0.01, 100.0]) + rng.normal(size=3)
+    i, j = np.meshgrid(np.arange(nu), np.arange(nv), indexing="ij")
+    q = (i * (nv + 1) + j).ravel()
+    q = np.stack([q, q + nv + 1, q + nv + 2, q + 1], axis=1)
+    split = rng.random(len(q)) < pick(rng, [0.0, 0.001, 0.02, 0.3])
+    # Six id slots a quad: q0 q1 q2 q3 - - whole, q0 q1 q2 q0 q2 q3 split.
+    slots = np.full((len(q), 6), -1, dtype=np.int64)
+    slots[:, :4] = q
+    slots[split] = q[split][:, [0, 1, 2, 0, 2, 3]]
+    conn = slots[slots >= 0]
+    sizes = np.where(split[:, None], [3, 3], [4, 0]).ravel()
+    sizes = sizes[sizes > 0]
+    offsets = np.r_[0, np.cumsum(sizes)].astype(np.int64)
+    n_cells = len(sizes)
+    if not clean:
+        bad = np.flatnonzero(rng.random(n_cells) < pick(rng, [0.0, 1e-4, 1e-3]))
+        conn[offsets[bad] + 1] = conn[offsets[bad]]  # a repeated corner: a degenerate face
+    cells = cell_array_from(offsets, conn, rng.random() < 0.5)
+    if rng.random() < 0.5:
+        ds = vtkPolyData()
+        ds.SetPoints(vtk_points(pts, rng))
+        ds.SetPolys(cells)
+    else:
+        ds = vtkUnstructuredGrid()
+        ds.SetPoints(vtk_points(pts, rng))
+        ct = vtkUnsignedCharArray()
+        ct.DeepCopy(numpy_to_vtk(np.where(sizes == 3, TRIANGLE, QUAD).astype(np.uint8), deep=1, array_type=3))
+        ds.SetCells(ct, cells)
+    widths = {"pressure": 1, "velocity_gradient": 9, "wall_shear": 3}
+    for name in ("density", "viscosity", "eddy_viscosity"):
+        if rng.random() < 0.3:
+            widths[name] = 1
+    for name, width in widths.items():
+        vals = rng.normal(size=(n_cells, width)) * (1e5 if name == "pressure" else 1.0)
+        if name in ("density", "viscosity", "eddy_viscosity"):
+            vals = np.abs(vals) + 0.1
+        if not clean and rng.random() < 0.5:
+            hit = rng.random(n_cells) < pick(rng, [1e-4, 1e-3])
+            vals[hit, int(rng.integers(0, width))] = pick(rng, [np.nan, np.inf, -np.inf])
+        ds.GetCellData().AddArray(numeric_array(name, vals, "double"))
+    if not clean and rng.random() < 0.3:
+        g = np.where(rng.random(n_cells) < 0.01, pick(rng, [1, 32, 2, 8]), 0).astype(np.uint8)
+        arr = numpy_to_vtk(g, deep=1, array_type=3)
+        arr.SetName("vtkGhostType")
+        ds.GetCellData().AddArray(arr)
+    return ds, forces_only

@@ -40,7 +40,11 @@ def geometry(points, face):
     return area, nhat, cw / w
 
 
-def face_value(ds, name, on_points, face, cell, comps):
+def face_value(ds, selection, face, cell, comps):
+    """The value of a face from a selection (association, name) as the
+    filters take it: 0 points (the mean over its corners), 1 cells."""
+    association, name = selection
+    on_points = association == 0
     attrs = ds.GetPointData() if on_points else ds.GetCellData()
     arr = vtk_to_numpy(attrs.GetArray(name)).astype(np.float64).reshape(-1, comps)
     return arr[face].mean(axis=0) if on_points else arr[cell]
@@ -57,22 +61,22 @@ def wall_traction(ds, s):
         n = nhat if s["Orientation"] == 1 else -nhat
         rho = s["Density"]
         if s.get("DensityArray"):
-            rho = face_value(ds, s["DensityArray"][1], s["DensityArray"][0], face, c, 1)[0]
+            rho = face_value(ds, s["DensityArray"], face, c, 1)[0]
         p = 0.0
         if s.get("Pressure"):
-            p = face_value(ds, s["Pressure"][1], s["Pressure"][0], face, c, 1)[0]
+            p = face_value(ds, s["Pressure"], face, c, 1)[0]
             p = (rho * p if s["PressureKind"] == 1 else p) - s["ReferencePressure"]
         visc = np.zeros(3)
         if s["ShearSource"] == 1:
-            visc = face_value(ds, s["ShearStressArray"][1], s["ShearStressArray"][0], face, c, 3)
+            visc = face_value(ds, s["ShearStressArray"], face, c, 3)
             visc = visc * (rho if s["ShearStressKind"] == 1 else 1.0)
         elif s["ShearSource"] == 2:
-            G = face_value(ds, s["VelocityGradient"][1], s["VelocityGradient"][0], face, c, 9).reshape(3, 3)
+            G = face_value(ds, s["VelocityGradient"], face, c, 9).reshape(3, 3)
             mu = s["Viscosity"]
             if s.get("ViscosityArray"):
-                mu = face_value(ds, s["ViscosityArray"][1], s["ViscosityArray"][0], face, c, 1)[0]
+                mu = face_value(ds, s["ViscosityArray"], face, c, 1)[0]
             if s.get("TurbulentViscosityArray"):
-                mu = mu + face_value(ds, s["TurbulentViscosityArray"][1], s["TurbulentViscosityArray"][0],
+                mu = mu + face_value(ds, s["TurbulentViscosityArray"],
                                      face, c, 1)[0]
             mu_eff = rho * mu if s["ViscosityKind"] == 1 else mu
             tau = mu_eff * (G + G.T) - 2.0 / 3.0 * mu_eff * np.trace(G) * np.eye(3)

@@ -289,9 +289,9 @@ inline CacheLines CacheLinesOf(const void* p, std::uintptr_t bytes)
  * hint: it cannot fault and changes no value). The face loops read their
  * cell arrays front to back, but the runs read a wide array (the velocity
  * gradient: 72 bytes a face, nine lines a run of eight faces) one component
- * at a time across the run, and measured on the machine the benchmark runs
- * on, asking for the lines four runs ahead takes 7 % off a run on one
- * thread and 15 % on two (DEVELOPERS.md, "Prefetching").
+ * at a time across the run; on the machine measured, asking for the lines
+ * four runs ahead took 2-12 % off the loop on one thread and 7-19 % on two
+ * (medians; DEVELOPERS.md, "Prefetching").
  */
 WALLLOADS_FACE_INLINE void PrefetchBytes(const void* p, std::uintptr_t bytes)
 {

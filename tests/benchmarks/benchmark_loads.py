@@ -13,8 +13,8 @@ and on STDThread (all cores):
   * first execution: a new vtkWallTraction + vtkLoadIntegration pipeline
     (fresh output arrays, the orientation check on as by default), with all
     per-face arrays and with forces only; and, interleaved, with the check
-    off, so that the check's own cost shows (the difference of the medians
-    of at least 7 of each);
+    off, so that the check's own cost shows (the median of the differences
+    of at least 15 pairs);
   * re-execution of the same pipeline on the unchanged mesh (a time-step
     loop: Wall Traction is modified, the check is reused, the output arrays
     are rewritten in place); Wall Traction and Load Integration separately;
@@ -493,12 +493,14 @@ def main():
                 # runs), interleaved with new pipelines without the check, so
                 # that both see the same machine; first executions are
                 # dominated by page faults and vary more than re-executions.
-                # The check's cost is the difference of the medians of Wall
-                # Traction's time with and without it (a first execution's
-                # page faults vary by more than the check costs, so a
-                # difference of two best-of figures is mostly noise).
+                # The check's cost is the median of the differences of Wall
+                # Traction's time with and without it, pair by pair (15
+                # pairs: a first execution's page faults vary by more than
+                # the check costs, so a difference of two best-of figures is
+                # mostly noise, and so was, on a busier host, a difference of
+                # two medians of 7).
                 firsts, first_split, checked, nocheck = [], None, [], []
-                for _ in range(max(7, args.repeat)):
+                for _ in range(max(15, args.repeat)):
                     run = WallLoadsPipeline(pd, True, forces_only)
                     (t, wt_t, li_t), _ = timed_split(run, 1)
                     firsts.append(t)
@@ -520,7 +522,7 @@ def main():
                 wt = run.wt
                 results[key] = (t, force)
                 results[key + " first"] = (min(firsts), force)
-                check_cost = float(np.median(checked) - np.median(nocheck))
+                check_cost = float(np.median(np.array(checked) - np.array(nocheck)))
                 say("%-34s first %6.3f s (WT %.3f + LI %.3f) = %6.2f M faces/s; WT medians with check %.3f s,"
                       " without %.3f s" % (key, min(firsts), first_split[0], first_split[1], mf(min(firsts)),
                                            np.median(checked), np.median(nocheck)))

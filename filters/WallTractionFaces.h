@@ -500,17 +500,16 @@ struct FaceLoop
     const Lanes<W> origin[3] = { Lanes<W>(0.0), Lanes<W>(0.0), Lanes<W>(0.0) };
     lanes.AddFace(A, centroid, origin, fp, fv);
     // Every lane is valid: the stores and tallies of the scalar path.
-    for (int j = 0; j < W; ++j)
+    if (out.FaceOk)
     {
-      const vtkIdType f = c + j; // counted (checked above)
-      if (out.FaceOk)
+      for (int j = 0; j < W; ++j)
       {
-        out.FaceOk[f] = 1;
+        out.FaceOk[c + j] = 1; // counted (checked above)
       }
-      if (this->Balance)
-      {
-        tally.Balance.AddFace(ids[j], N, false);
-      }
+    }
+    if (this->Balance)
+    {
+      tally.Balance.AddFaces<W, N>(ids); // the run's W faces in lanes
     }
     if constexpr (W == 8)
     {

@@ -4,6 +4,8 @@
 // a closed surface oriented consistently walks every edge once each way.
 #include "wallloads/ContentHash.h"
 #include "wallloads/EdgeBalance.h"
+#include "wallloads/FaceGeometry.h" // UseAvx512Loops
+#include "wallloads/Lanes.h"        // WALLLOADS_TARGET_AVX512
 #include "wallloads/OrientationCheck.h"
 
 #include <gtest/gtest.h>
@@ -14,6 +16,9 @@
 #include <vector>
 
 using namespace wallloads;
+
+// Inlined into their callers, so that the AVX-512 one compiles them for AVX-512.
+#define LANES_BALANCE_INLINE inline __attribute__((always_inline))
 
 namespace
 {
@@ -145,6 +150,75 @@ TEST(EdgeBalance, ImbalanceIsTheDefinedFingerprint)
   }
   EXPECT_EQ(b.Faces, 5000);
 }
+
+#if defined(__GNUC__) || defined(__clang__)
+/// AddFaces<W, N> (a run of the face loop, a face per lane) against W calls
+/// of AddFace: the same fingerprint, face count and repeated-corner flag, for
+/// random runs with and without repeated corners, 32- and 64-bit ids.
+template <int W, int N, typename I>
+LANES_BALANCE_INLINE void CompareRuns(std::uint64_t seed)
+{
+  std::uint64_t state = seed;
+  auto next = [&state]() {
+    state = state * 6364136223846793005ull + 1442695040888963407ull;
+    return state >> 33;
+  };
+  for (int run = 0; run < 500; ++run)
+  {
+    I stored[W][N];
+    const I* ids[W];
+    for (int j = 0; j < W; ++j)
+    {
+      for (int k = 0; k < N; ++k)
+      {
+        // small ranges make repeated corners common; large ids need 64 bits
+        const std::uint64_t range = run % 3 == 0 ? 6 : (sizeof(I) == 8 ? (1ull << 40) : (1ull << 30));
+        stored[j][k] = static_cast<I>(next() * 7919 % range);
+      }
+      ids[j] = stored[j];
+    }
+    EdgeBalance lanes, one;
+    lanes.Imbalance = one.Imbalance = next(); // a part already summed
+    lanes.AddFaces<W, N>(ids);
+    for (int j = 0; j < W; ++j)
+    {
+      one.AddFace(ids[j], N, false);
+    }
+    ASSERT_EQ(lanes.Imbalance, one.Imbalance) << "run " << run;
+    ASSERT_EQ(lanes.Faces, one.Faces);
+    ASSERT_EQ(lanes.Irregular, one.Irregular) << "run " << run;
+  }
+}
+
+template <int W>
+LANES_BALANCE_INLINE void CompareAllRuns()
+{
+  CompareRuns<W, 3, std::int32_t>(1);
+  CompareRuns<W, 4, std::int32_t>(2);
+  CompareRuns<W, 3, std::int64_t>(3);
+  CompareRuns<W, 4, std::int64_t>(4);
+}
+
+#if WALLLOADS_AVX512_CLONE
+// Compiled for AVX-512 as the face loop that calls it is (vpmullq).
+WALLLOADS_TARGET_AVX512 void CompareEightLaneRuns()
+{
+  CompareAllRuns<8>();
+}
+#endif
+
+TEST(EdgeBalance, RunsInLanesEqualFaceByFace)
+{
+  CompareAllRuns<4>(); // baseline code for the vector extension
+  CompareAllRuns<8>();
+#if WALLLOADS_AVX512_CLONE
+  if (UseAvx512Loops())
+  {
+    CompareEightLaneRuns();
+  }
+#endif
+}
+#endif
 
 TEST(ContentHash, SameBytesSameHashAndOneBitChangesIt)
 {

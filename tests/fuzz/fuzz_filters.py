@@ -531,18 +531,28 @@ def volume_input(rng, clean):
     return I.random_composite(rng, lambda: I.random_volume(rng, clean), clean)
 
 
+def checked_wall_traction(ws, data, before, stats, tally):
+    """Wall Traction with settings `ws` on both backends, with the checks
+    after it (input unchanged against the digest `before`, a failure
+    reported, the output's own checks); its output, or None if it failed.
+    Counts tally_ok or tally_fail."""
+    ok, outs, msgs = run_both_backends(lambda: make_wall_traction(ws), [data])
+    check(digest(data) == before, "Wall Traction modified its input")
+    check_failure_reported("Wall Traction", ok, msgs)
+    stats[tally + ("_ok" if ok else "_fail")] += 1
+    if not ok:
+        return None
+    check_wall_traction(outs[0], msgs)
+    return outs[0]
+
+
 def run_surface_chain(rng, clean, stats):
     data = surface_input(rng, clean)
     before = digest(data)
     ws = wall_traction_settings(rng, data, clean)
-    ok, outs, msgs = run_both_backends(lambda: make_wall_traction(ws), [data])
-    check(digest(data) == before, "Wall Traction modified its input")
-    check_failure_reported("Wall Traction", ok, msgs)
-    stats["wt_ok" if ok else "wt_fail"] += 1
-    if not ok:
+    wt_out = checked_wall_traction(ws, data, before, stats, "wt")
+    if wt_out is None:
         return
-    check_wall_traction(outs[0], msgs)
-    wt_out = outs[0]
     ls = load_integration_settings(rng, data, clean)
     before_li = digest(wt_out)
     ok2, outs2, msgs2 = run_both_backends(lambda: make_load_integration(ls), [wt_out])
@@ -622,14 +632,9 @@ def run_large_surface(rng, clean, stats):
         for key in ("ReferencePressure", "Density", "Viscosity"):
             if rng.random() < 0.15:
                 ws[key] = float(I.hostile_number(rng, ws[key] or 1.0))
-    ok, outs, msgs = run_both_backends(lambda: make_wall_traction(ws), [data])
-    check(digest(data) == before, "Wall Traction modified its input (large surface)")
-    check_failure_reported("Wall Traction", ok, msgs)
-    stats["large_ok" if ok else "large_fail"] += 1
-    if not ok:
+    out = checked_wall_traction(ws, data, before, stats, "large")
+    if out is None:
         return
-    out = outs[0]
-    check_wall_traction(out, msgs)
     made = [out.GetCellData().GetArray(name) for name in sorted(MADE_ARRAYS)]
     made = [a for a in made if a is not None]
     total = sum(a.GetNumberOfValues() * a.GetDataTypeSize() for a in made)

@@ -166,6 +166,13 @@ def cell_array_of(cells, wide):
     return cell_array_from(offsets, conn, wide)
 
 
+def cell_types_of(types):
+    """vtkUnsignedCharArray of VTK cell type ids (a numpy array or a list)."""
+    ct = vtkUnsignedCharArray()
+    ct.DeepCopy(numpy_to_vtk(np.ascontiguousarray(types, dtype=np.uint8), deep=1, array_type=3))
+    return ct
+
+
 def cell_array_from(offsets, conn, wide):
     """vtkCellArray from int64 offsets and connectivity, 32- or 64-bit storage."""
     ca = vtkCellArray()
@@ -237,8 +244,7 @@ def random_surface(rng, clean):
     else:
         ug = vtkUnstructuredGrid()
         ug.SetPoints(vtk_points(pts, rng))
-        ct = vtkUnsignedCharArray()
-        ct.DeepCopy(numpy_to_vtk(np.asarray(types, dtype=np.uint8), deep=1, array_type=3))
+        ct = cell_types_of(types)
         ug.SetCells(ct, cell_array_of(cells, wide))
         ds = ug
     if not clean and rng.random() < 0.03:
@@ -289,8 +295,7 @@ def planar_clean_surface(rng):
     else:
         ds = vtkUnstructuredGrid()
         ds.SetPoints(vtk_points(pts, rng))
-        ct = vtkUnsignedCharArray()
-        ct.DeepCopy(numpy_to_vtk(np.asarray(types, dtype=np.uint8), deep=1, array_type=3))
+        ct = cell_types_of(types)
         ds.SetCells(ct, cell_array_of(cells, wide))
     decorate(rng, ds, clean=True)
     return ds
@@ -361,8 +366,7 @@ def hex_block_ugrid(rng, pts, nx, ny, nz, clean):
         cells[-1] = random_cell(rng, types[-1], len(pts), clean=False)
     ug = vtkUnstructuredGrid()
     ug.SetPoints(vtk_points(pts, rng))
-    ct = vtkUnsignedCharArray()
-    ct.DeepCopy(numpy_to_vtk(np.asarray(types, dtype=np.uint8), deep=1, array_type=3))
+    ct = cell_types_of(types)
     ug.SetCells(ct, cell_array_of(cells, rng.random() < 0.4))
     return ug
 
@@ -430,7 +434,8 @@ def selection(rng, name, clean):
 # take at least 32 MiB together (WallTractionTypes.h, StreamBytes): 174 763
 # faces with all arrays (24 doubles a face), 599 187 with forces only (7).
 STREAM_BYTES = 32 * 1024 * 1024
-STREAM_FACES = {"all arrays": 174763, "forces only": 599187}
+OUTPUT_DOUBLES = {"all arrays": 24, "forces only": 7}
+STREAM_FACES = {k: -(-STREAM_BYTES // (8 * d)) for k, d in OUTPUT_DOUBLES.items()}
 
 
 def large_surface(rng, clean):
@@ -473,8 +478,7 @@ def large_surface(rng, clean):
     else:
         ds = vtkUnstructuredGrid()
         ds.SetPoints(vtk_points(pts, rng))
-        ct = vtkUnsignedCharArray()
-        ct.DeepCopy(numpy_to_vtk(np.where(sizes == 3, TRIANGLE, QUAD).astype(np.uint8), deep=1, array_type=3))
+        ct = cell_types_of(np.where(sizes == 3, TRIANGLE, QUAD))
         ds.SetCells(ct, cells)
     widths = {"pressure": 1, "velocity_gradient": 9, "wall_shear": 3}
     for name in ("density", "viscosity", "eddy_viscosity"):

@@ -68,13 +68,21 @@ struct EdgeBalance
   std::int64_t Faces = 0;
   bool Irregular = false; ///< a face repeats a corner id
 
-  static std::uint64_t Hash(std::uint64_t id)
+  /// g(id) in place: one 64-bit value, or W of them in the lanes of an
+  /// IdLanes<W> (by reference: no vector crosses a call boundary).
+  template <typename U>
+  static WALLLOADS_FACE_INLINE void HashInPlace(U& z)
   {
     // splitmix64 finaliser: a bijection of 64 bits with full avalanche.
-    std::uint64_t z = id + 0x9E3779B97F4A7C15ull;
+    z += 0x9E3779B97F4A7C15ull;
     z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ull;
     z = (z ^ (z >> 27)) * 0x94D049BB133111EBull;
-    return z ^ (z >> 31);
+    z ^= z >> 31;
+  }
+  static std::uint64_t Hash(std::uint64_t id)
+  {
+    HashInPlace(id);
+    return id;
   }
 
   /// Add one face of `n` corner ids; `reversed` walks it backwards.
@@ -151,13 +159,10 @@ struct EdgeBalance
         repeated |= corner[j] == corner[k];
       }
     }
-    Ids g[N];
+    Ids* g = corner; // hashed in place
     for (int k = 0; k < N; ++k)
     {
-      Ids z = corner[k] + 0x9E3779B97F4A7C15ull; // Hash, lane by lane
-      z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ull;
-      z = (z ^ (z >> 27)) * 0x94D049BB133111EBull;
-      g[k] = z ^ (z >> 31);
+      HashInPlace(g[k]);
     }
     Ids d = {};
     for (int k = 0; k < N; ++k)
